@@ -1,0 +1,139 @@
+//===- Circuit.h - The hierarchical circuit IR ---------------------------===//
+//
+// A Circuit keeps every gate definition as a definition (a body over local
+// qubits with parameter expressions) and the top level as a flat list of
+// operations on global qubits and bits. Nothing is expanded here: analyses
+// expand through memoised per-definition summaries when they need to.
+//
+// Storage is compact because flat files hold millions of operations: an Op
+// is 32 bytes and indexes shared pools of wires, parameter values and
+// conditions.
+//
+//===----------------------------------------------------------------------===//
+#ifndef REVBOUND_IR_CIRCUIT_H
+#define REVBOUND_IR_CIRCUIT_H
+
+#include "revbound/ir/ParamExpr.h"
+
+#include "llvm/ADT/APInt.h"
+#include "llvm/ADT/ArrayRef.h"
+#include "llvm/ADT/SmallVector.h"
+#include "llvm/ADT/StringMap.h"
+#include "llvm/Support/SMLoc.h"
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace revbound::ir {
+
+using GateId = uint32_t;
+
+/// Where a gate comes from; it decides what counts as a leaf (DESIGN.md,
+/// "Levels of a circuit").
+enum class GateOrigin : uint8_t {
+  Builtin,         // U and CX
+  StandardLibrary, // declared by the qelib1.inc in use
+  User,            // a `gate` in the user's files
+  Opaque,          // an `opaque` declaration
+};
+
+/// One statement of a gate body: a call of an earlier gate on local qubits,
+/// or a barrier over local qubits.
+struct BodyOp {
+  bool IsBarrier = false;
+  GateId Callee = 0;
+  llvm::SmallVector<uint32_t, 3> Qubits; // indices of the gate's qubit args
+  llvm::SmallVector<ParamExpr, 1> Params;
+  llvm::SMLoc Loc;
+};
+
+struct GateDef {
+  std::string Name;
+  GateOrigin Origin = GateOrigin::User;
+  std::vector<std::string> ParamNames;
+  std::vector<std::string> QubitNames;
+  std::vector<BodyOp> Body;
+  llvm::SMLoc Loc;
+  /// 0 for gates without a body; otherwise 1 + the deepest callee's level.
+  unsigned NestingLevel = 0;
+
+  unsigned numParams() const { return unsigned(ParamNames.size()); }
+  unsigned numQubits() const { return unsigned(QubitNames.size()); }
+  bool hasBody() const {
+    return Origin != GateOrigin::Builtin && Origin != GateOrigin::Opaque;
+  }
+};
+
+/// A declared register; its wires are Offset .. Offset + Size - 1 in the
+/// qubit or the bit numbering.
+struct Register {
+  std::string Name;
+  uint32_t Offset = 0;
+  uint32_t Size = 0;
+  llvm::SMLoc Loc;
+};
+
+enum class OpKind : uint8_t { Gate, Measure, Reset, Barrier };
+
+/// `if (creg == value)`: the op runs when the register reads `Value`, its
+/// first bit the least significant (OpenQASM 2.0 specification).
+struct Condition {
+  uint32_t CReg = 0;  // index into Circuit::CRegs
+  llvm::APInt Value;  // as wide as the register
+  bool Unsatisfiable = false; // the value needs more bits than the register
+};
+
+inline constexpr uint32_t NoCondition = UINT32_MAX;
+
+/// One top-level operation after broadcasting.
+///  - Gate:    Wires are the qubits, in argument order.
+///  - Measure: Wires[0] is the qubit, Wires[1] the bit.
+///  - Reset:   Wires[0] is the qubit.
+///  - Barrier: Wires are the qubits named.
+struct Op {
+  OpKind Kind = OpKind::Gate;
+  uint32_t NumWires = 0;
+  GateId Gate = 0;              // Kind::Gate
+  uint32_t FirstWire = 0;       // into Circuit::Wires
+  uint32_t FirstParam = 0;      // into Circuit::Params (the gate's numParams)
+  uint32_t Cond = NoCondition;  // into Circuit::Conditions
+  llvm::SMLoc Loc;
+};
+
+class Circuit {
+public:
+  Circuit();
+
+  std::vector<GateDef> Gates;          // U, CX first, then in declaration order
+  llvm::StringMap<GateId> GateByName;  // the definition each name means now
+  std::vector<Register> QRegs, CRegs;
+  uint32_t NumQubits = 0;
+  uint32_t NumClbits = 0;
+
+  std::vector<Op> Ops;
+  std::vector<uint32_t> Wires;
+  std::vector<double> Params;
+  std::vector<Condition> Conditions;
+
+  static constexpr GateId UGate = 0;
+  static constexpr GateId CXGate = 1;
+
+  const GateDef &gate(GateId Id) const { return Gates[Id]; }
+  llvm::ArrayRef<uint32_t> wires(const Op &O) const {
+    return {Wires.data() + O.FirstWire, O.NumWires};
+  }
+  llvm::ArrayRef<double> params(const Op &O) const {
+    if (O.Kind != OpKind::Gate)
+      return {};
+    return {Params.data() + O.FirstParam, Gates[O.Gate].numParams()};
+  }
+  /// Name of qubit `Q` as "reg[i]".
+  std::string qubitName(uint32_t Q) const;
+  /// Name of bit `C` as "reg[i]".
+  std::string clbitName(uint32_t C) const;
+};
+
+} // namespace revbound::ir
+
+#endif

@@ -1,0 +1,110 @@
+//===- AST.h - Syntax of one OpenQASM 2.0 statement ----------------------===//
+//
+// The parser hands statements to a StatementSink one at a time, so a flat
+// file of millions of operations is never held as a syntax tree. Names are
+// StringRefs into source buffers, which live as long as the SourceFiles that
+// owns them; expressions live in the parser's arena until the sink returns.
+//
+//===----------------------------------------------------------------------===//
+#ifndef REVBOUND_QASM_AST_H
+#define REVBOUND_QASM_AST_H
+
+#include "llvm/ADT/SmallVector.h"
+#include "llvm/ADT/StringRef.h"
+#include "llvm/Support/Error.h"
+#include "llvm/Support/SMLoc.h"
+
+#include <cstdint>
+#include <vector>
+
+namespace revbound::qasm {
+
+enum class ExprKind : uint8_t { Number, Pi, Name, Neg, Add, Sub, Mul, Div, Pow, Call };
+enum class MathFunc : uint8_t { Sin, Cos, Tan, Exp, Ln, Sqrt };
+
+/// An arithmetic expression over real numbers, pi and gate parameters.
+struct Expr {
+  ExprKind Kind = ExprKind::Number;
+  MathFunc Func = MathFunc::Sin; // for Call
+  llvm::SMLoc Loc;
+  unsigned Length = 0;           // bytes of the leading token, for diagnostics
+  double Value = 0;              // for Number
+  llvm::StringRef Name;          // for Name
+  const Expr *Lhs = nullptr;     // operand of Neg and Call, left of a binary
+  const Expr *Rhs = nullptr;
+};
+
+/// A name with where it was written.
+struct Ident {
+  llvm::StringRef Name;
+  llvm::SMLoc Loc;
+};
+
+/// `q` or `q[3]` as an operand.
+struct Operand {
+  Ident Reg;
+  bool HasIndex = false;
+  uint64_t Index = 0;
+  llvm::SMLoc IndexLoc;
+  unsigned IndexLength = 0;
+  unsigned length() const; // bytes from the name to the closing bracket
+};
+
+/// `name(params) args;`, also `U(...) q;` and `CX a,b;`.
+struct GateCall {
+  Ident Gate;
+  llvm::SmallVector<const Expr *, 3> Params;
+  llvm::SmallVector<Operand, 3> Args;
+};
+
+/// One statement inside a gate body: a call or a barrier over local names.
+struct BodyStatement {
+  bool IsBarrier = false;
+  llvm::SMLoc Loc;
+  GateCall Call; // for a barrier only Call.Args is used, without indices
+};
+
+/// `gate name(params) qubits { body }` or `opaque name(params) qubits;`.
+struct GateDecl {
+  Ident Name;
+  bool Opaque = false;
+  bool FromStandardLibrary = false; // declared by the qelib1.inc in use
+  llvm::SmallVector<Ident, 4> Params;
+  llvm::SmallVector<Ident, 4> Qubits;
+  std::vector<BodyStatement> Body;
+};
+
+enum class StmtKind : uint8_t { QReg, CReg, GateDecl, GateCall, Measure, Reset, Barrier };
+
+/// One top-level statement. Only the fields of its kind are meaningful.
+struct Statement {
+  StmtKind Kind = StmtKind::GateCall;
+  llvm::SMLoc Loc;
+  // Register declarations.
+  Ident RegName;
+  uint64_t RegSize = 0;
+  llvm::SMLoc RegSizeLoc;
+  unsigned RegSizeLength = 0;
+  // Quantum operations.
+  GateCall Call;                         // GateCall
+  Operand Target;                        // Measure source, Reset target
+  Operand Result;                        // Measure destination
+  llvm::SmallVector<Operand, 4> Barrier; // Barrier
+  const GateDecl *Decl = nullptr;        // GateDecl
+  // `if (creg == value)` in front of an operation.
+  bool HasCondition = false;
+  Ident CondReg;
+  llvm::StringRef CondValue; // decimal digits as written
+  llvm::SMLoc CondValueLoc;
+};
+
+/// Receives statements in source order; an error stops the parse.
+class StatementSink {
+public:
+  virtual ~StatementSink();
+  virtual llvm::Error onStatement(const Statement &S) = 0;
+};
+
+} // namespace revbound::qasm
+
+#endif

@@ -1,0 +1,28 @@
+//===- Parser.h - Recursive-descent parser for OpenQASM 2.0 --------------===//
+#ifndef REVBOUND_QASM_PARSER_H
+#define REVBOUND_QASM_PARSER_H
+
+#include "revbound/qasm/AST.h"
+#include "revbound/support/Diagnostics.h"
+#include "revbound/support/SourceFiles.h"
+
+#include <string>
+
+namespace revbound::qasm {
+
+struct ParserOptions {
+  /// A file that replaces the built-in qelib1.inc ("" for the built-in one).
+  std::string StandardLibraryPath;
+  unsigned MaxIncludeDepth = 16;
+};
+
+/// Parses buffer `BufferId` of `Files` and streams its statements, and those
+/// of the files it includes, to `Sink`. Returns the first error, which is a
+/// DiagnosticError; warnings go to `Warnings`.
+llvm::Error parseProgram(SourceFiles &Files, unsigned BufferId,
+                         const ParserOptions &Opts, StatementSink &Sink,
+                         DiagnosticSink &Warnings);
+
+} // namespace revbound::qasm
+
+#endif

@@ -1,0 +1,89 @@
+//===- Report.h - What revbound found, as plain data ---------------------===//
+//
+// Analyses fill a Report; writers only format it. Locations are already
+// resolved to file, line and column so that a Report outlives the sources.
+//
+//===----------------------------------------------------------------------===//
+#ifndef REVBOUND_REPORT_REPORT_H
+#define REVBOUND_REPORT_REPORT_H
+
+#include "revbound/analysis/Census.h"
+#include "revbound/analysis/LeafPolicy.h"
+#include "revbound/qasm/Frontend.h"
+#include "revbound/support/SourceFiles.h"
+
+#include <cstdint>
+#include <string>
+#include <vector>
+
+namespace revbound::report {
+
+inline constexpr const char *SchemaVersion = "revbound/report-1";
+
+struct SourcePoint {
+  std::string File;
+  unsigned Line = 0;
+  unsigned Column = 0;
+};
+
+/// One operation on the critical path.
+struct PathStep {
+  std::string Gate;               // gate name, or measure / reset
+  std::vector<std::string> Wires; // "q[0]", "c[1]"
+  SourcePoint At;                 // the top-level statement
+  SourcePoint Inside;             // the gate-body statement (Line 0 if none)
+};
+
+struct CriticalPath {
+  std::string Method;  // "dag" (leaf graph) or "summary" (top-level ops)
+  uint64_t Length = 0; // layers, equal to depth.all
+  uint64_t Steps = 0;  // operations on the path
+  std::vector<PathStep> Listed; // the first MaxPathSteps of them
+};
+
+struct Finding {
+  std::string Severity; // "warning"
+  SourcePoint At;
+  std::string Message;
+};
+
+struct CircuitReport {
+  std::string File;
+  uint32_t Qubits = 0;
+  uint32_t Clbits = 0;
+  std::string Granularity;
+  analysis::Census Ops;
+  uint64_t DepthAll = 0, DepthTwoQubit = 0, DepthT = 0;
+  uint64_t Volume = 0;
+  CriticalPath Path;
+  std::vector<Finding> Warnings;
+};
+
+struct Report {
+  std::vector<CircuitReport> Circuits;
+};
+
+struct AnalysisOptions {
+  analysis::LeafPolicy Policy;
+  uint64_t MaxDagNodes = 200'000; // leaf graph size for the exact path listing
+  unsigned MaxPathSteps = 100;    // critical-path steps listed
+};
+
+/// Reads, elaborates and analyses one file ("-" for standard input) whose
+/// sources stay in `Files`. Errors are DiagnosticErrors located in `Files`;
+/// warnings go to `Warnings` and into the report.
+llvm::Expected<CircuitReport> analyzeFile(SourceFiles &Files,
+                                          llvm::StringRef Path,
+                                          const qasm::FrontendOptions &Front,
+                                          const AnalysisOptions &Opts,
+                                          DiagnosticSink &Warnings);
+
+/// Analyses an elaborated circuit (the library entry point for embedders).
+llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
+                                             const SourceFiles &Files,
+                                             llvm::StringRef DisplayName,
+                                             const AnalysisOptions &Opts);
+
+} // namespace revbound::report
+
+#endif

@@ -1,0 +1,237 @@
+//===- Schedule.cpp - Depths, spacetime volume and the critical path -----===//
+#include "revbound/analysis/Schedule.h"
+#include "revbound/support/Diagnostics.h"
+
+#include "llvm/ADT/SmallVector.h"
+
+#include <algorithm>
+
+namespace revbound::analysis {
+
+namespace {
+
+constexpr uint32_t NoOp = UINT32_MAX;
+constexpr uint64_t NoPath = DelayMatrix::NoPath;
+
+class Scheduler {
+public:
+  Scheduler(const ir::Circuit &C, SummaryCache &Cache)
+      : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
+        FirstUse(C.NumQubits, NoPath), LastOp(NumWires, NoOp),
+        PredOp(C.Wires.size(), NoOp), PredWire(C.Wires.size(), 0) {
+    for (auto &R : Ready)
+      R.assign(NumWires, 0);
+  }
+
+  llvm::Error run();
+  Schedule finish();
+
+private:
+  void collectWires(const ir::Op &O);
+  llvm::Error applyCall(uint32_t Index, const ir::Op &O,
+                        const GateSummary &S);
+  void applyLeaf(uint32_t Index, const ir::Op &O, bool IsT, bool UsesQubits);
+  void markUse(uint32_t Wire, uint64_t Start) {
+    if (Wire < C.NumQubits && FirstUse[Wire] == NoPath)
+      FirstUse[Wire] = Start;
+  }
+
+  const ir::Circuit &C;
+  SummaryCache &Cache;
+  size_t NumWires;
+  std::vector<uint64_t> Ready[NumDepthMetrics];
+  std::vector<uint64_t> FirstUse;
+  std::vector<uint32_t> LastOp;    // op that last advanced each wire
+  std::vector<uint32_t> PredOp;    // per op wire slot: op before it on a longest path
+  std::vector<uint32_t> PredWire;  // per op wire slot: the wire that path came in on
+  llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
+};
+
+void Scheduler::collectWires(const ir::Op &O) {
+  Wires.clear();
+  llvm::ArrayRef<uint32_t> W = C.wires(O);
+  for (unsigned I = 0; I < W.size(); ++I)
+    Wires.push_back(O.Kind == ir::OpKind::Measure && I == 1
+                        ? uint32_t(C.NumQubits + W[I])
+                        : W[I]);
+  if (O.Cond != ir::NoCondition) {
+    const ir::Register &R = C.CRegs[C.Conditions[O.Cond].CReg];
+    for (uint32_t B = 0; B < R.Size; ++B)
+      Wires.push_back(C.NumQubits + R.Offset + B);
+  }
+}
+
+// A leaf, measure, reset or barrier: every wire it names (condition bits
+// included) starts together and ends `weight` layers later.
+void Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
+                          bool UsesQubits) {
+  bool IsGate = O.Kind == ir::OpKind::Gate;
+  bool IsBarrier = O.Kind == ir::OpKind::Barrier;
+  uint64_t Weight[NumDepthMetrics] = {
+      IsBarrier ? 0u : 1u, IsGate && O.NumWires >= 2 ? 1u : 0u, IsT ? 1u : 0u};
+  for (unsigned M = 0; M < NumDepthMetrics; ++M) {
+    std::vector<uint64_t> &R = Ready[M];
+    uint64_t Start = 0;
+    uint32_t Critical = Wires[0];
+    for (uint32_t W : Wires)
+      if (R[W] > Start) {
+        Start = R[W];
+        Critical = W;
+      }
+    if (M == unsigned(DepthMetric::All)) {
+      for (unsigned I = 0; I < O.NumWires; ++I) {
+        PredOp[O.FirstWire + I] = Start > 0 ? LastOp[Critical] : NoOp;
+        PredWire[O.FirstWire + I] = Critical;
+      }
+      if (UsesQubits)
+        for (unsigned I = 0; I < O.NumWires; ++I)
+          markUse(Wires[I], Start);
+    }
+    for (uint32_t W : Wires)
+      R[W] = Start + Weight[M];
+  }
+  for (uint32_t W : Wires)
+    LastOp[W] = Index;
+}
+
+llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
+                                 const GateSummary &S) {
+  unsigned K = O.NumWires;
+  llvm::SmallVector<uint64_t, 8> In(K), Out(K);
+  llvm::SmallVector<uint32_t, 8> InWire(K);
+  for (unsigned M = 0; M < NumDepthMetrics; ++M) {
+    std::vector<uint64_t> &R = Ready[M];
+    bool All = M == unsigned(DepthMetric::All);
+    // The condition bits hold every input back until they are ready.
+    uint64_t CondReady = 0;
+    uint32_t CondWire = 0;
+    for (unsigned I = K; I < Wires.size(); ++I)
+      if (R[Wires[I]] > CondReady) {
+        CondReady = R[Wires[I]];
+        CondWire = Wires[I];
+      }
+    for (unsigned I = 0; I < K; ++I) {
+      In[I] = R[Wires[I]];
+      InWire[I] = Wires[I];
+      if (CondReady > In[I]) {
+        In[I] = CondReady;
+        InWire[I] = CondWire;
+      }
+    }
+    if (All)
+      for (unsigned J = 0; J < K; ++J) {
+        uint64_t First = NoPath;
+        for (unsigned I = 0; I < K; ++I) {
+          uint64_t F = S.FirstUse.at(I, J);
+          if (F != NoPath)
+            First = First == NoPath ? In[I] + F : std::max(First, In[I] + F);
+        }
+        if (First != NoPath)
+          markUse(Wires[J], First);
+      }
+    uint64_t Latest = CondReady;
+    for (unsigned J = 0; J < K; ++J) {
+      uint64_t Best = 0;
+      unsigned From = J;
+      bool Found = false;
+      for (unsigned I = 0; I < K; ++I) {
+        uint64_t D = S.Depth[M].at(I, J);
+        if (D == NoPath)
+          continue;
+        uint64_t V;
+        if (__builtin_add_overflow(In[I], D, &V) || V == NoPath)
+          return errorAt(O.Loc, "a depth passes 2^64-1 layers; revbound "
+                                "counts exactly in 64 bits and will not wrap");
+        if (!Found || V > Best) {
+          Best = V;
+          From = I;
+          Found = true;
+        }
+      }
+      Out[J] = Best;
+      Latest = std::max(Latest, Best);
+      if (All) {
+        PredOp[O.FirstWire + J] = In[From] > 0 ? LastOp[InWire[From]] : NoOp;
+        PredWire[O.FirstWire + J] = InWire[From];
+      }
+    }
+    for (unsigned J = 0; J < K; ++J)
+      R[Wires[J]] = Out[J];
+    for (unsigned I = K; I < Wires.size(); ++I)
+      R[Wires[I]] = std::max(R[Wires[I]], Latest);
+  }
+  for (uint32_t W : Wires)
+    LastOp[W] = Index;
+  return llvm::Error::success();
+}
+
+llvm::Error Scheduler::run() {
+  for (uint32_t Index = 0; Index < C.Ops.size(); ++Index) {
+    const ir::Op &O = C.Ops[Index];
+    if (O.NumWires == 0)
+      continue;
+    collectWires(O);
+    if (O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate)) {
+      bool IsT = O.Kind == ir::OpKind::Gate &&
+                 isTLeaf(C.gate(O.Gate), C.params(O));
+      applyLeaf(Index, O, IsT, O.Kind != ir::OpKind::Barrier);
+      continue;
+    }
+    llvm::Expected<const GateSummary *> S =
+        Cache.get(O.Gate, C.params(O), O.Loc);
+    if (!S)
+      return S.takeError();
+    if (llvm::Error E = applyCall(Index, O, **S))
+      return E;
+  }
+  return llvm::Error::success();
+}
+
+Schedule Scheduler::finish() {
+  Schedule Out;
+  for (unsigned M = 0; M < NumDepthMetrics; ++M)
+    for (uint64_t V : Ready[M])
+      Out.Depth[M] = std::max(Out.Depth[M], V);
+  const std::vector<uint64_t> &All = Ready[unsigned(DepthMetric::All)];
+  for (uint32_t Q = 0; Q < C.NumQubits; ++Q)
+    if (FirstUse[Q] != NoPath)
+      Out.Volume += All[Q] - FirstUse[Q];
+  // Walk back from the wire that finishes last.
+  uint32_t Wire = 0;
+  for (uint32_t W = 1; W < All.size(); ++W)
+    if (All[W] > All[Wire])
+      Wire = W;
+  if (All.empty() || All[Wire] == 0)
+    return Out;
+  uint32_t Op = LastOp[Wire];
+  while (Op != NoOp) {
+    const ir::Op &O = C.Ops[Op];
+    if (O.Kind != ir::OpKind::Barrier) // aligns, takes no layer
+      Out.CriticalOps.push_back(Op);
+    llvm::ArrayRef<uint32_t> W = C.wires(O);
+    unsigned Slot = 0;
+    for (unsigned I = 0; I < W.size(); ++I) {
+      uint32_t Global = O.Kind == ir::OpKind::Measure && I == 1
+                            ? uint32_t(C.NumQubits + W[I])
+                            : W[I];
+      if (Global == Wire)
+        Slot = I;
+    }
+    Wire = PredWire[O.FirstWire + Slot];
+    Op = PredOp[O.FirstWire + Slot];
+  }
+  std::reverse(Out.CriticalOps.begin(), Out.CriticalOps.end());
+  return Out;
+}
+
+} // namespace
+
+llvm::Expected<Schedule> scheduleCircuit(const ir::Circuit &C,
+                                         SummaryCache &Cache) {
+  Scheduler S(C, Cache);
+  if (llvm::Error E = S.run())
+    return std::move(E);
+  return S.finish();
+}
+
+} // namespace revbound::analysis

@@ -1,0 +1,327 @@
+//===- Summary.cpp - Memoised per-definition summaries -------------------===//
+//
+// A body is summarised by running it on symbolic inputs: every local wire
+// carries, per depth metric, a vector of longest-path delays from each input
+// wire (max-plus algebra, NoPath as minus infinity).
+//
+//===----------------------------------------------------------------------===//
+#include "revbound/analysis/Summary.h"
+#include "revbound/support/Checked.h"
+#include "revbound/support/Diagnostics.h"
+
+#include "llvm/ADT/DenseMap.h"
+#include "llvm/ADT/StringSwitch.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstring>
+#include <fmt/format.h>
+#include <numbers>
+
+namespace revbound::analysis {
+
+static constexpr uint64_t NoPath = DelayMatrix::NoPath;
+
+static uint64_t maxPath(uint64_t A, uint64_t B) {
+  if (A == NoPath)
+    return B;
+  if (B == NoPath)
+    return A;
+  return std::max(A, B);
+}
+
+/// A + B in max-plus; false on overflow (a path of 2^64 - 1 layers or more).
+static bool plusPath(uint64_t A, uint64_t B, uint64_t &Out) {
+  if (A == NoPath || B == NoPath) {
+    Out = NoPath;
+    return true;
+  }
+  return !__builtin_add_overflow(A, B, &Out) && Out != NoPath;
+}
+
+static bool isQuarterTurn(double Angle) {
+  double R = std::remainder(Angle, 2 * std::numbers::pi);
+  return std::fabs(std::fabs(R) - std::numbers::pi / 4) < 1e-9;
+}
+
+bool isTLeaf(const ir::GateDef &G, llvm::ArrayRef<double> P) {
+  if (G.numQubits() != 1)
+    return false;
+  bool Library = G.Origin == ir::GateOrigin::StandardLibrary;
+  if (Library && (G.Name == "t" || G.Name == "tdg"))
+    return true;
+  bool Builtin = G.Origin == ir::GateOrigin::Builtin;
+  if (Library && (G.Name == "rz" || G.Name == "u1" || G.Name == "p") &&
+      P.size() == 1)
+    return isQuarterTurn(P[0]);
+  // U(0, phi, lambda) = Rz(phi + lambda) up to global phase.
+  if ((Builtin || (Library && (G.Name == "u3" || G.Name == "u"))) &&
+      P.size() == 3)
+    return std::fabs(std::remainder(P[0], 2 * std::numbers::pi)) < 1e-9 &&
+           isQuarterTurn(P[1] + P[2]);
+  return false;
+}
+
+static bool isAngleGate(const ir::GateDef &G) {
+  return G.Origin == ir::GateOrigin::Builtin ||
+         (G.Origin == ir::GateOrigin::StandardLibrary &&
+          llvm::StringSwitch<bool>(G.Name)
+              .Cases("rz", "u1", "p", "u3", "u", true)
+              .Default(false));
+}
+
+SummaryCache::SummaryCache(const ir::Circuit &Circ, const LeafPolicy &P)
+    : C(Circ), Policy(P), LeafFlags(Circ.Gates.size()),
+      ParamSensitive(Circ.Gates.size(), -1), ById(Circ.Gates.size()),
+      Primitive(Circ.Gates.size()) {
+  for (size_t I = 0; I < Circ.Gates.size(); ++I)
+    LeafFlags[I] = Policy.isLeaf(Circ.Gates[I]);
+}
+
+SummaryCache::~SummaryCache() = default;
+
+bool SummaryCache::dependsOnParams(ir::GateId G) {
+  if (ParamSensitive[G] >= 0)
+    return ParamSensitive[G];
+  const ir::GateDef &D = C.gate(G);
+  bool Sensitive = false;
+  if (D.numParams() > 0 && D.hasBody()) {
+    for (const ir::BodyOp &B : D.Body) {
+      if (B.IsBarrier)
+        continue;
+      bool Constant = std::all_of(B.Params.begin(), B.Params.end(),
+                                  [](const ir::ParamExpr &E) { return E.isConstant(); });
+      if (Constant)
+        continue;
+      const ir::GateDef &Callee = C.gate(B.Callee);
+      if (LeafFlags[B.Callee] ? isAngleGate(Callee) : dependsOnParams(B.Callee)) {
+        Sensitive = true;
+        break;
+      }
+    }
+  }
+  ParamSensitive[G] = Sensitive;
+  return Sensitive;
+}
+
+llvm::Expected<const GateSummary *>
+SummaryCache::get(ir::GateId G, llvm::ArrayRef<double> Params, llvm::SMLoc Loc) {
+  if (!dependsOnParams(G)) {
+    if (!ById[G]) {
+      llvm::Expected<std::unique_ptr<GateSummary>> S = compute(G, Params, Loc);
+      if (!S)
+        return S.takeError();
+      ById[G] = std::move(*S);
+    }
+    return ById[G].get();
+  }
+  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
+  std::memcpy(Key.data(), &G, sizeof(G));
+  if (!Params.empty())
+    std::memcpy(Key.data() + sizeof(G), Params.data(),
+                Params.size() * sizeof(double));
+  auto It = ByParams.find(Key);
+  if (It != ByParams.end())
+    return It->second.get();
+  // Bound the memory of files that call one gate with millions of distinct
+  // angles; only safe at the outermost call, where no summary is in use.
+  if (Depth == 0 && ByParams.size() > 65536)
+    ByParams.clear();
+  llvm::Expected<std::unique_ptr<GateSummary>> S = compute(G, Params, Loc);
+  if (!S)
+    return S.takeError();
+  auto &Slot = ByParams[Key];
+  Slot = std::move(*S);
+  return Slot.get();
+}
+
+static llvm::Error overflowAt(llvm::SMLoc Loc, const ir::GateDef &G) {
+  return errorAt(Loc, fmt::format("the expansion of gate '{}' passes 2^64-1 "
+                                  "operations or layers; revbound counts "
+                                  "exactly in 64 bits and will not wrap",
+                                  G.Name));
+}
+
+llvm::Expected<std::unique_ptr<GateSummary>>
+SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
+                      llvm::SMLoc Loc) {
+  const ir::GateDef &Def = C.gate(G);
+  unsigned K = Def.numQubits();
+  auto Out = std::make_unique<GateSummary>();
+  ++Depth;
+  struct Leave {
+    unsigned &D;
+    ~Leave() { --D; }
+  } L{Depth};
+
+  // State[m][w * K + i]: longest path from input i to the present end of
+  // wire w under metric m.
+  std::vector<uint64_t> State[NumDepthMetrics];
+  for (auto &S : State) {
+    S.assign(size_t(K) * K, NoPath);
+    for (unsigned W = 0; W < K; ++W)
+      S[size_t(W) * K + W] = 0;
+  }
+  std::vector<uint64_t> FirstUse(size_t(K) * K, NoPath);
+  std::vector<bool> Touched(K, false);
+  llvm::DenseMap<ir::GateId, uint64_t> Counts;
+  std::vector<uint64_t> Start(K), NewRows;
+  llvm::SmallVector<double, 4> CalleeParams;
+
+  for (const ir::BodyOp &B : Def.Body) {
+    llvm::ArrayRef<uint32_t> A = B.Qubits;
+    if (B.IsBarrier) {
+      for (auto &S : State) {
+        std::fill(Start.begin(), Start.end(), NoPath);
+        for (uint32_t X : A)
+          for (unsigned I = 0; I < K; ++I)
+            Start[I] = maxPath(Start[I], S[size_t(X) * K + I]);
+        for (uint32_t X : A)
+          std::copy(Start.begin(), Start.end(), S.begin() + size_t(X) * K);
+      }
+      continue;
+    }
+    CalleeParams.clear();
+    for (const ir::ParamExpr &E : B.Params)
+      CalleeParams.push_back(E.evaluate(Params));
+    const ir::GateDef &Callee = C.gate(B.Callee);
+
+    if (LeafFlags[B.Callee]) {
+      bool Ok = addChecked(Counts[B.Callee], 1) && addChecked(Out->Gates, 1);
+      bool IsT = isTLeaf(Callee, CalleeParams);
+      if (A.size() >= 2)
+        Ok = Ok && addChecked(Out->MultiQubit, 1);
+      if (IsT)
+        Ok = Ok && addChecked(Out->TCount, 1);
+      if (!Ok)
+        return overflowAt(Loc, Def);
+      uint64_t Weight[NumDepthMetrics] = {1, A.size() >= 2 ? 1u : 0u,
+                                          IsT ? 1u : 0u};
+      for (unsigned M = 0; M < NumDepthMetrics; ++M) {
+        std::vector<uint64_t> &S = State[M];
+        std::fill(Start.begin(), Start.end(), NoPath);
+        for (uint32_t X : A)
+          for (unsigned I = 0; I < K; ++I)
+            Start[I] = maxPath(Start[I], S[size_t(X) * K + I]);
+        if (M == unsigned(DepthMetric::All))
+          for (uint32_t X : A)
+            if (!Touched[X]) {
+              Touched[X] = true;
+              std::copy(Start.begin(), Start.end(),
+                        FirstUse.begin() + size_t(X) * K);
+            }
+        for (unsigned I = 0; I < K; ++I)
+          if (!plusPath(Start[I], Weight[M], Start[I]))
+            return overflowAt(Loc, Def);
+        for (uint32_t X : A)
+          std::copy(Start.begin(), Start.end(), S.begin() + size_t(X) * K);
+      }
+      continue;
+    }
+
+    llvm::Expected<const GateSummary *> SubOrErr =
+        get(B.Callee, CalleeParams, Loc);
+    if (!SubOrErr)
+      return SubOrErr.takeError();
+    const GateSummary &Sub = **SubOrErr;
+    bool Ok = addChecked(Out->Gates, Sub.Gates) &&
+              addChecked(Out->MultiQubit, Sub.MultiQubit) &&
+              addChecked(Out->TCount, Sub.TCount);
+    for (const auto &[Leaf, N] : Sub.LeafCounts)
+      Ok = Ok && addChecked(Counts[Leaf], N);
+    if (!Ok)
+      return overflowAt(Loc, Def);
+    unsigned KA = unsigned(A.size());
+    NewRows.assign(size_t(KA) * K, NoPath);
+    for (unsigned M = 0; M < NumDepthMetrics; ++M) {
+      std::vector<uint64_t> &S = State[M];
+      const DelayMatrix &D = Sub.Depth[M];
+      bool All = M == unsigned(DepthMetric::All);
+      if (All) {
+        // First use needs the state before this call.
+        for (unsigned J = 0; J < KA; ++J) {
+          if (Touched[A[J]])
+            continue;
+          bool Any = false;
+          for (unsigned Lw = 0; Lw < KA; ++Lw) {
+            uint64_t F = Sub.FirstUse.at(Lw, J);
+            if (F == NoPath)
+              continue;
+            for (unsigned I = 0; I < K; ++I) {
+              uint64_t V;
+              if (!plusPath(S[size_t(A[Lw]) * K + I], F, V))
+                return overflowAt(Loc, Def);
+              uint64_t &Slot = FirstUse[size_t(A[J]) * K + I];
+              Slot = maxPath(Slot, V);
+              Any = true;
+            }
+          }
+          if (Any)
+            Touched[A[J]] = true;
+        }
+      }
+      std::fill(NewRows.begin(), NewRows.end(), NoPath);
+      for (unsigned J = 0; J < KA; ++J)
+        for (unsigned Lw = 0; Lw < KA; ++Lw) {
+          uint64_t Dl = D.at(Lw, J);
+          if (Dl == NoPath)
+            continue;
+          for (unsigned I = 0; I < K; ++I) {
+            uint64_t V;
+            if (!plusPath(S[size_t(A[Lw]) * K + I], Dl, V))
+              return overflowAt(Loc, Def);
+            uint64_t &Slot = NewRows[size_t(J) * K + I];
+            Slot = maxPath(Slot, V);
+          }
+        }
+      for (unsigned J = 0; J < KA; ++J)
+        std::copy(NewRows.begin() + size_t(J) * K,
+                  NewRows.begin() + size_t(J + 1) * K,
+                  S.begin() + size_t(A[J]) * K);
+    }
+  }
+
+  for (unsigned M = 0; M < NumDepthMetrics; ++M) {
+    Out->Depth[M] = DelayMatrix(K);
+    for (unsigned J = 0; J < K; ++J)
+      for (unsigned I = 0; I < K; ++I)
+        Out->Depth[M].at(I, J) = State[M][size_t(J) * K + I];
+  }
+  Out->FirstUse = DelayMatrix(K);
+  for (unsigned J = 0; J < K; ++J)
+    for (unsigned I = 0; I < K; ++I)
+      Out->FirstUse.at(I, J) = FirstUse[size_t(J) * K + I];
+  for (const auto &[Leaf, N] : Counts)
+    Out->LeafCounts.push_back({Leaf, N});
+  llvm::sort(Out->LeafCounts);
+  return std::move(Out);
+}
+
+llvm::Expected<PrimitiveCounts> SummaryCache::primitive(ir::GateId G,
+                                                        llvm::SMLoc Loc) {
+  if (Primitive[G])
+    return *Primitive[G];
+  const ir::GateDef &Def = C.gate(G);
+  PrimitiveCounts P;
+  if (G == ir::Circuit::UGate)
+    P.U = 1;
+  else if (G == ir::Circuit::CXGate)
+    P.CX = 1;
+  else if (Def.Origin == ir::GateOrigin::Opaque)
+    P.Opaque = 1;
+  else
+    for (const ir::BodyOp &B : Def.Body) {
+      if (B.IsBarrier)
+        continue;
+      llvm::Expected<PrimitiveCounts> Sub = primitive(B.Callee, Loc);
+      if (!Sub)
+        return Sub.takeError();
+      if (!addChecked(P.U, Sub->U) || !addChecked(P.CX, Sub->CX) ||
+          !addChecked(P.Opaque, Sub->Opaque))
+        return overflowAt(Loc, Def);
+    }
+  Primitive[G] = std::make_unique<PrimitiveCounts>(P);
+  return P;
+}
+
+} // namespace revbound::analysis

@@ -1,0 +1,35 @@
+//===- Circuit.cpp - The hierarchical circuit IR -------------------------===//
+#include "revbound/ir/Circuit.h"
+
+#include <fmt/format.h>
+
+namespace revbound::ir {
+
+Circuit::Circuit() {
+  // The two built-in gates of OpenQASM 2.0 (specification, section 3).
+  GateDef U;
+  U.Name = "U";
+  U.Origin = GateOrigin::Builtin;
+  U.ParamNames = {"theta", "phi", "lambda"};
+  U.QubitNames = {"q"};
+  GateDef CX;
+  CX.Name = "CX";
+  CX.Origin = GateOrigin::Builtin;
+  CX.QubitNames = {"c", "t"};
+  Gates.push_back(std::move(U));
+  Gates.push_back(std::move(CX));
+  GateByName["U"] = UGate;
+  GateByName["CX"] = CXGate;
+}
+
+static std::string wireName(const std::vector<Register> &Regs, uint32_t W) {
+  for (const Register &R : Regs)
+    if (W >= R.Offset && W < R.Offset + R.Size)
+      return fmt::format("{}[{}]", R.Name, W - R.Offset);
+  return fmt::format("?[{}]", W);
+}
+
+std::string Circuit::qubitName(uint32_t Q) const { return wireName(QRegs, Q); }
+std::string Circuit::clbitName(uint32_t C) const { return wireName(CRegs, C); }
+
+} // namespace revbound::ir

@@ -1,0 +1,636 @@
+//===- Frontend.cpp - Elaboration of OpenQASM 2.0 into the circuit IR ----===//
+//
+// The rules checked here are those of the OpenQASM 2.0 specification
+// (Cross, Bishop, Smolin, Gambetta, arXiv:1707.03429, sections 3 and 4):
+// declaration before use, equal register sizes when broadcasting, distinct
+// qubit arguments in every gate application, gates calling only earlier
+// gates.
+//
+//===----------------------------------------------------------------------===//
+#include "revbound/qasm/Frontend.h"
+
+#include "llvm/ADT/SmallSet.h"
+
+#include <cmath>
+#include <fmt/format.h>
+#include <numbers>
+
+namespace revbound::qasm {
+
+namespace {
+
+llvm::Error withNote(llvm::Error E, llvm::SMLoc NoteLoc, std::string Note,
+                     unsigned Length = 0) {
+  return llvm::handleErrors(std::move(E), [&](DiagnosticError &DE) {
+    Diagnostic Full = DE.diagnostic();
+    Diagnostic N;
+    N.Sev = Severity::Note;
+    N.Loc = NoteLoc;
+    N.Length = Length;
+    N.Message = Note;
+    Full.Notes.push_back(std::move(N));
+    return llvm::make_error<DiagnosticError>(std::move(Full));
+  });
+}
+
+/// Translates a syntax tree into postfix code; `Scope` names the parameters
+/// in reach (empty at the top level).
+llvm::Error compileExpr(const Expr *E, llvm::ArrayRef<Ident> Scope,
+                        ir::ParamExpr &Out) {
+  using Op = ir::ParamExpr::OpCode;
+  switch (E->Kind) {
+  case ExprKind::Number:
+    Out.push({Op::Const, 0, E->Value});
+    return llvm::Error::success();
+  case ExprKind::Pi:
+    Out.push({Op::Const, 0, std::numbers::pi});
+    return llvm::Error::success();
+  case ExprKind::Name:
+    for (unsigned I = 0; I < Scope.size(); ++I)
+      if (Scope[I].Name == E->Name) {
+        Out.push({Op::Param, I, 0});
+        return llvm::Error::success();
+      }
+    if (Scope.empty())
+      return errorAt(E->Loc,
+                     fmt::format("'{}' is not defined; outside gate bodies "
+                                 "parameters must be constant expressions",
+                                 E->Name.str()),
+                     E->Length);
+    return errorAt(E->Loc,
+                   fmt::format("'{}' is not a parameter of this gate",
+                               E->Name.str()),
+                   E->Length);
+  case ExprKind::Neg:
+  case ExprKind::Call: {
+    if (llvm::Error Err = compileExpr(E->Lhs, Scope, Out))
+      return Err;
+    Op Code = Op::Neg;
+    if (E->Kind == ExprKind::Call) {
+      switch (E->Func) {
+      case MathFunc::Sin: Code = Op::Sin; break;
+      case MathFunc::Cos: Code = Op::Cos; break;
+      case MathFunc::Tan: Code = Op::Tan; break;
+      case MathFunc::Exp: Code = Op::Exp; break;
+      case MathFunc::Ln: Code = Op::Ln; break;
+      case MathFunc::Sqrt: Code = Op::Sqrt; break;
+      }
+    }
+    Out.push({Code, 0, 0});
+    return llvm::Error::success();
+  }
+  case ExprKind::Add:
+  case ExprKind::Sub:
+  case ExprKind::Mul:
+  case ExprKind::Div:
+  case ExprKind::Pow: {
+    if (llvm::Error Err = compileExpr(E->Lhs, Scope, Out))
+      return Err;
+    if (llvm::Error Err = compileExpr(E->Rhs, Scope, Out))
+      return Err;
+    Op Code = E->Kind == ExprKind::Add   ? Op::Add
+              : E->Kind == ExprKind::Sub ? Op::Sub
+              : E->Kind == ExprKind::Mul ? Op::Mul
+              : E->Kind == ExprKind::Div ? Op::Div
+                                         : Op::Pow;
+    Out.push({Code, 0, 0});
+    return llvm::Error::success();
+  }
+  }
+  return llvm::Error::success();
+}
+
+/// A resolved top-level operand: one wire, or a whole register.
+struct WireRef {
+  uint32_t First = 0;
+  uint32_t Count = 1;
+  bool IsRegister = false;
+  const Operand *Source = nullptr;
+};
+
+class Elaborator : public StatementSink {
+public:
+  Elaborator(const FrontendLimits &Limits, DiagnosticSink &Warnings)
+      : Limits(Limits), Warnings(Warnings) {}
+
+  llvm::Error onStatement(const Statement &S) override;
+  ir::Circuit take() { return std::move(C); }
+
+private:
+  llvm::Error declareRegister(const Statement &S);
+  llvm::Error defineGate(const GateDecl &D);
+  llvm::Error compileBody(const GateDecl &D, ir::GateDef &G);
+  llvm::Error applyGate(const Statement &S, uint32_t Cond);
+  llvm::Error applyMeasure(const Statement &S, uint32_t Cond);
+  llvm::Error applyReset(const Statement &S, uint32_t Cond);
+  llvm::Error applyBarrier(const Statement &S);
+  llvm::Expected<uint32_t> makeCondition(const Statement &S);
+  llvm::Expected<ir::GateId> lookupGate(const Ident &Name);
+  llvm::Expected<WireRef> resolve(const Operand &O, bool Quantum);
+  llvm::Error checkBroadcast(llvm::ArrayRef<WireRef> Refs, uint64_t &Count);
+  llvm::Error addOp(ir::Op O);
+
+  const ir::Register *findRegister(llvm::StringRef Name, bool &IsQuantum) const;
+
+  const FrontendLimits &Limits;
+  DiagnosticSink &Warnings;
+  ir::Circuit C;
+  bool SawStandardLibrary = false;
+  llvm::StringMap<uint32_t> RegisterByName; // index * 2 + (1 for quantum)
+  llvm::SmallVector<WireRef, 4> Refs;     // reused per statement
+  llvm::SmallVector<uint32_t, 8> Qubits;  // reused per statement
+};
+
+const ir::Register *Elaborator::findRegister(llvm::StringRef Name,
+                                             bool &IsQuantum) const {
+  auto It = RegisterByName.find(Name);
+  if (It == RegisterByName.end())
+    return nullptr;
+  // Encoded as index * 2 + (1 for quantum).
+  IsQuantum = It->second & 1;
+  return IsQuantum ? &C.QRegs[It->second >> 1] : &C.CRegs[It->second >> 1];
+}
+
+llvm::Error Elaborator::onStatement(const Statement &S) {
+  switch (S.Kind) {
+  case StmtKind::QReg:
+  case StmtKind::CReg:
+    return declareRegister(S);
+  case StmtKind::GateDecl:
+    return defineGate(*S.Decl);
+  case StmtKind::Barrier:
+    return applyBarrier(S);
+  case StmtKind::GateCall:
+  case StmtKind::Measure:
+  case StmtKind::Reset:
+    break;
+  }
+  uint32_t Cond = ir::NoCondition;
+  if (S.HasCondition) {
+    llvm::Expected<uint32_t> CondOrErr = makeCondition(S);
+    if (!CondOrErr)
+      return CondOrErr.takeError();
+    Cond = *CondOrErr;
+  }
+  if (S.Kind == StmtKind::GateCall)
+    return applyGate(S, Cond);
+  if (S.Kind == StmtKind::Measure)
+    return applyMeasure(S, Cond);
+  return applyReset(S, Cond);
+}
+
+llvm::Error Elaborator::declareRegister(const Statement &S) {
+  bool Quantum = S.Kind == StmtKind::QReg;
+  bool OtherQuantum = false;
+  if (const ir::Register *Prev = findRegister(S.RegName.Name, OtherQuantum))
+    return withNote(errorAt(S.RegName.Loc,
+                            fmt::format("redeclaration of register '{}'",
+                                        S.RegName.Name.str()),
+                            unsigned(S.RegName.Name.size())),
+                    Prev->Loc, "previous declaration is here");
+  if (S.RegSize == 0)
+    return errorAt(S.RegSizeLoc, "a register needs at least one wire",
+                   S.RegSizeLength);
+  uint64_t Limit = Quantum ? Limits.MaxQubits : Limits.MaxClbits;
+  uint64_t Have = Quantum ? C.NumQubits : C.NumClbits;
+  if (S.RegSize > Limit - Have)
+    return errorAt(S.RegSizeLoc,
+                   fmt::format("{} {} in all would exceed the limit of {} ({})",
+                               Have + std::min<uint64_t>(S.RegSize, UINT32_MAX),
+                               Quantum ? "qubits" : "classical bits", Limit,
+                               Quantum ? "--max-qubits" : "--max-clbits"),
+                   S.RegSizeLength);
+  ir::Register R;
+  R.Name = S.RegName.Name.str();
+  R.Offset = uint32_t(Have);
+  R.Size = uint32_t(S.RegSize);
+  R.Loc = S.RegName.Loc;
+  RegisterByName[R.Name] =
+      uint32_t((Quantum ? C.QRegs.size() : C.CRegs.size()) * 2 + Quantum);
+  if (Quantum) {
+    C.QRegs.push_back(std::move(R));
+    C.NumQubits += uint32_t(S.RegSize);
+  } else {
+    C.CRegs.push_back(std::move(R));
+    C.NumClbits += uint32_t(S.RegSize);
+  }
+  return llvm::Error::success();
+}
+
+static llvm::Error checkDistinct(llvm::ArrayRef<Ident> Names,
+                                 const char *What) {
+  for (unsigned I = 0; I < Names.size(); ++I)
+    for (unsigned J = 0; J < I; ++J)
+      if (Names[I].Name == Names[J].Name)
+        return withNote(errorAt(Names[I].Loc,
+                                fmt::format("duplicate {} '{}'", What,
+                                            Names[I].Name.str()),
+                                unsigned(Names[I].Name.size())),
+                        Names[J].Loc, "first declared here");
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::defineGate(const GateDecl &D) {
+  if (D.FromStandardLibrary)
+    SawStandardLibrary = true;
+  if (llvm::Error E = checkDistinct(D.Params, "gate parameter"))
+    return E;
+  if (llvm::Error E = checkDistinct(D.Qubits, "gate qubit argument"))
+    return E;
+  for (const Ident &P : D.Params)
+    for (const Ident &Q : D.Qubits)
+      if (P.Name == Q.Name)
+        return errorAt(Q.Loc,
+                       fmt::format("'{}' names both a parameter and a qubit "
+                                   "argument",
+                                   Q.Name.str()),
+                       unsigned(Q.Name.size()));
+  if (D.Qubits.size() > Limits.MaxGateQubits)
+    return errorAt(D.Name.Loc,
+                   fmt::format("gate '{}' takes {} qubits, over the limit of {}",
+                               D.Name.Name.str(), D.Qubits.size(),
+                               Limits.MaxGateQubits),
+                   unsigned(D.Name.Name.size()));
+  auto Existing = C.GateByName.find(D.Name.Name);
+  if (Existing != C.GateByName.end()) {
+    const ir::GateDef &Prev = C.gate(Existing->second);
+    // Library gates are weak: the user's own definition replaces them.
+    bool Replaceable =
+        Prev.Origin == ir::GateOrigin::StandardLibrary && !D.FromStandardLibrary;
+    if (!Replaceable)
+      return withNote(errorAt(D.Name.Loc,
+                              fmt::format("redefinition of gate '{}'",
+                                          D.Name.Name.str()),
+                              unsigned(D.Name.Name.size())),
+                      Prev.Loc, "previous definition is here");
+  }
+  ir::GateDef G;
+  G.Name = D.Name.Name.str();
+  G.Loc = D.Name.Loc;
+  G.Origin = D.Opaque ? ir::GateOrigin::Opaque
+             : D.FromStandardLibrary ? ir::GateOrigin::StandardLibrary
+                                     : ir::GateOrigin::User;
+  for (const Ident &P : D.Params)
+    G.ParamNames.push_back(P.Name.str());
+  for (const Ident &Q : D.Qubits)
+    G.QubitNames.push_back(Q.Name.str());
+  if (!D.Opaque)
+    if (llvm::Error E = compileBody(D, G))
+      return E;
+  ir::GateId Id = ir::GateId(C.Gates.size());
+  C.Gates.push_back(std::move(G));
+  C.GateByName[D.Name.Name] = Id;
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::compileBody(const GateDecl &D, ir::GateDef &G) {
+  unsigned Level = 0;
+  for (const BodyStatement &B : D.Body) {
+    ir::BodyOp Op;
+    Op.IsBarrier = B.IsBarrier;
+    Op.Loc = B.Loc;
+    for (const Operand &A : B.Call.Args) {
+      auto It = std::find_if(D.Qubits.begin(), D.Qubits.end(),
+                             [&](const Ident &Q) { return Q.Name == A.Reg.Name; });
+      if (It == D.Qubits.end())
+        return errorAt(A.Reg.Loc,
+                       fmt::format("'{}' is not a qubit argument of gate '{}'",
+                                   A.Reg.Name.str(), G.Name),
+                       unsigned(A.Reg.Name.size()));
+      uint32_t Index = uint32_t(It - D.Qubits.begin());
+      if (!B.IsBarrier)
+        for (uint32_t Prev : Op.Qubits)
+          if (Prev == Index)
+            return errorAt(A.Reg.Loc,
+                           fmt::format("qubit '{}' is used twice in one gate "
+                                       "application",
+                                       A.Reg.Name.str()),
+                           unsigned(A.Reg.Name.size()));
+      Op.Qubits.push_back(Index);
+    }
+    if (!B.IsBarrier) {
+      const Ident &Callee = B.Call.Gate;
+      if (Callee.Name == D.Name.Name)
+        return errorAt(Callee.Loc,
+                       fmt::format("gate '{}' calls itself; a gate body may "
+                                   "only call gates defined before it",
+                                   G.Name),
+                       unsigned(Callee.Name.size()));
+      llvm::Expected<ir::GateId> Id = lookupGate(Callee);
+      if (!Id)
+        return Id.takeError();
+      const ir::GateDef &Def = C.gate(*Id);
+      if (B.Call.Params.size() != Def.numParams())
+        return errorAt(Callee.Loc,
+                       fmt::format("gate '{}' takes {} parameter{}, got {}",
+                                   Def.Name, Def.numParams(),
+                                   Def.numParams() == 1 ? "" : "s",
+                                   B.Call.Params.size()),
+                       unsigned(Callee.Name.size()));
+      if (Op.Qubits.size() != Def.numQubits())
+        return errorAt(Callee.Loc,
+                       fmt::format("gate '{}' acts on {} qubit{}, got {}",
+                                   Def.Name, Def.numQubits(),
+                                   Def.numQubits() == 1 ? "" : "s",
+                                   Op.Qubits.size()),
+                       unsigned(Callee.Name.size()));
+      for (const Expr *P : B.Call.Params) {
+        ir::ParamExpr PE;
+        if (llvm::Error E = compileExpr(P, D.Params, PE))
+          return E;
+        Op.Params.push_back(std::move(PE));
+      }
+      Op.Callee = *Id;
+      Level = std::max(Level, Def.NestingLevel);
+    }
+    G.Body.push_back(std::move(Op));
+  }
+  G.NestingLevel = Level + 1;
+  if (G.NestingLevel > Limits.MaxNesting)
+    return errorAt(D.Name.Loc,
+                   fmt::format("gate '{}' nests {} levels of definitions, over "
+                               "the limit of {} (--max-nesting)",
+                               G.Name, G.NestingLevel, Limits.MaxNesting),
+                   unsigned(D.Name.Name.size()));
+  return llvm::Error::success();
+}
+
+llvm::Expected<ir::GateId> Elaborator::lookupGate(const Ident &Name) {
+  auto It = C.GateByName.find(Name.Name);
+  if (It != C.GateByName.end())
+    return It->second;
+  llvm::Error E = errorAt(Name.Loc,
+                          fmt::format("unknown gate '{}'", Name.Name.str()),
+                          unsigned(Name.Name.size()));
+  if (!SawStandardLibrary)
+    return withNote(std::move(E), llvm::SMLoc(),
+                    "the standard gates (h, cx, ccx, ...) come from "
+                    "'include \"qelib1.inc\";'");
+  return std::move(E);
+}
+
+llvm::Expected<WireRef> Elaborator::resolve(const Operand &O, bool Quantum) {
+  bool IsQuantum = false;
+  const ir::Register *R = findRegister(O.Reg.Name, IsQuantum);
+  unsigned Len = unsigned(O.Reg.Name.size());
+  if (!R)
+    return errorAt(O.Reg.Loc,
+                   fmt::format("use of undeclared {} register '{}'",
+                               Quantum ? "quantum" : "classical",
+                               O.Reg.Name.str()),
+                   Len);
+  if (IsQuantum != Quantum)
+    return errorAt(O.Reg.Loc,
+                   fmt::format("'{}' is a {} register; expected a {} register",
+                               O.Reg.Name.str(),
+                               IsQuantum ? "quantum" : "classical",
+                               Quantum ? "quantum" : "classical"),
+                   Len);
+  WireRef W;
+  W.Source = &O;
+  if (!O.HasIndex) {
+    W.First = R->Offset;
+    W.Count = R->Size;
+    W.IsRegister = true;
+    return W;
+  }
+  if (O.Index >= R->Size)
+    return withNote(errorAt(O.IndexLoc,
+                            fmt::format("index {} is out of range for register "
+                                        "'{}' of size {}",
+                                        O.Index, R->Name, R->Size),
+                            O.IndexLength),
+                    R->Loc, "register declared here",
+                    unsigned(R->Name.size()));
+  W.First = R->Offset + uint32_t(O.Index);
+  return W;
+}
+
+/// Broadcasting (specification, section 3): register operands must all have
+/// the same size n, and the statement means n applications, single wires
+/// being repeated in each.
+llvm::Error Elaborator::checkBroadcast(llvm::ArrayRef<WireRef> Refs,
+                                       uint64_t &Count) {
+  const WireRef *First = nullptr;
+  Count = 1;
+  for (const WireRef &R : Refs) {
+    if (!R.IsRegister)
+      continue;
+    if (!First) {
+      First = &R;
+      Count = R.Count;
+      continue;
+    }
+    if (R.Count != First->Count)
+      return withNote(
+          errorAt(R.Source->Reg.Loc,
+                  fmt::format("register '{}' has {} wires but '{}' has {}; "
+                              "registers in one statement must have equal sizes",
+                              R.Source->Reg.Name.str(), R.Count,
+                              First->Source->Reg.Name.str(), First->Count),
+                  unsigned(R.Source->Reg.Name.size())),
+          First->Source->Reg.Loc, "the first register operand is here",
+          unsigned(First->Source->Reg.Name.size()));
+  }
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::addOp(ir::Op O) {
+  if (C.Ops.size() >= Limits.MaxOps)
+    return errorAt(O.Loc,
+                   fmt::format("more than {} top-level operations after "
+                               "broadcasting (--max-ops)",
+                               Limits.MaxOps));
+  C.Ops.push_back(O);
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {
+  const GateCall &Call = S.Call;
+  llvm::Expected<ir::GateId> Id = lookupGate(Call.Gate);
+  if (!Id)
+    return Id.takeError();
+  const ir::GateDef &Def = C.gate(*Id);
+  unsigned NameLen = unsigned(Call.Gate.Name.size());
+  if (Call.Params.size() != Def.numParams())
+    return errorAt(Call.Gate.Loc,
+                   fmt::format("gate '{}' takes {} parameter{}, got {}", Def.Name,
+                               Def.numParams(), Def.numParams() == 1 ? "" : "s",
+                               Call.Params.size()),
+                   NameLen);
+  if (Call.Args.size() != Def.numQubits())
+    return errorAt(Call.Gate.Loc,
+                   fmt::format("gate '{}' acts on {} qubit{}, got {}", Def.Name,
+                               Def.numQubits(), Def.numQubits() == 1 ? "" : "s",
+                               Call.Args.size()),
+                   NameLen);
+  uint32_t FirstParam = uint32_t(C.Params.size());
+  for (const Expr *P : Call.Params) {
+    ir::ParamExpr PE;
+    if (llvm::Error E = compileExpr(P, {}, PE)) {
+      C.Params.resize(FirstParam);
+      return E;
+    }
+    double V = PE.evaluate({});
+    if (!std::isfinite(V)) {
+      C.Params.resize(FirstParam);
+      return errorAt(P->Loc, "parameter evaluates to a non-finite value",
+                     P->Length);
+    }
+    C.Params.push_back(V);
+  }
+  Refs.clear();
+  for (const Operand &A : Call.Args) {
+    llvm::Expected<WireRef> W = resolve(A, /*Quantum=*/true);
+    if (!W)
+      return W.takeError();
+    Refs.push_back(*W);
+  }
+  uint64_t Count;
+  if (llvm::Error E = checkBroadcast(Refs, Count))
+    return E;
+  for (uint64_t I = 0; I < Count; ++I) {
+    ir::Op O;
+    O.Kind = ir::OpKind::Gate;
+    O.Gate = *Id;
+    O.FirstWire = uint32_t(C.Wires.size());
+    O.NumWires = uint32_t(Refs.size());
+    O.FirstParam = FirstParam;
+    O.Cond = Cond;
+    O.Loc = S.Loc;
+    for (unsigned A = 0; A < Refs.size(); ++A) {
+      uint32_t Q = Refs[A].First + (Refs[A].IsRegister ? uint32_t(I) : 0);
+      for (unsigned B = 0; B < A; ++B)
+        if (C.Wires[O.FirstWire + B] == Q) {
+          C.Wires.resize(O.FirstWire);
+          return errorAt(Refs[A].Source->Reg.Loc,
+                         fmt::format("qubit {} is used twice in one "
+                                     "application of '{}'",
+                                     C.qubitName(Q), Def.Name),
+                         Refs[A].Source->length());
+        }
+      C.Wires.push_back(Q);
+    }
+    if (llvm::Error E = addOp(O))
+      return E;
+  }
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::applyMeasure(const Statement &S, uint32_t Cond) {
+  llvm::Expected<WireRef> Q = resolve(S.Target, /*Quantum=*/true);
+  if (!Q)
+    return Q.takeError();
+  llvm::Expected<WireRef> B = resolve(S.Result, /*Quantum=*/false);
+  if (!B)
+    return B.takeError();
+  if (Q->IsRegister != B->IsRegister || Q->Count != B->Count)
+    return errorAt(S.Result.Reg.Loc,
+                   fmt::format("measure maps {} qubit{} onto {} bit{}; a "
+                               "measurement needs a qubit and a bit, or two "
+                               "registers of equal size",
+                               Q->Count, Q->Count == 1 ? "" : "s", B->Count,
+                               B->Count == 1 ? "" : "s"),
+                   S.Result.length());
+  for (uint32_t I = 0; I < Q->Count; ++I) {
+    ir::Op O;
+    O.Kind = ir::OpKind::Measure;
+    O.FirstWire = uint32_t(C.Wires.size());
+    O.NumWires = 2;
+    O.Cond = Cond;
+    O.Loc = S.Loc;
+    C.Wires.push_back(Q->First + I);
+    C.Wires.push_back(B->First + I);
+    if (llvm::Error E = addOp(O))
+      return E;
+  }
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::applyReset(const Statement &S, uint32_t Cond) {
+  llvm::Expected<WireRef> Q = resolve(S.Target, /*Quantum=*/true);
+  if (!Q)
+    return Q.takeError();
+  for (uint32_t I = 0; I < Q->Count; ++I) {
+    ir::Op O;
+    O.Kind = ir::OpKind::Reset;
+    O.FirstWire = uint32_t(C.Wires.size());
+    O.NumWires = 1;
+    O.Cond = Cond;
+    O.Loc = S.Loc;
+    C.Wires.push_back(Q->First + I);
+    if (llvm::Error E = addOp(O))
+      return E;
+  }
+  return llvm::Error::success();
+}
+
+llvm::Error Elaborator::applyBarrier(const Statement &S) {
+  ir::Op O;
+  O.Kind = ir::OpKind::Barrier;
+  O.FirstWire = uint32_t(C.Wires.size());
+  O.Loc = S.Loc;
+  llvm::SmallSet<uint32_t, 16> Seen;
+  for (const Operand &A : S.Barrier) {
+    llvm::Expected<WireRef> W = resolve(A, /*Quantum=*/true);
+    if (!W) {
+      C.Wires.resize(O.FirstWire);
+      return W.takeError();
+    }
+    for (uint32_t I = 0; I < W->Count; ++I)
+      if (Seen.insert(W->First + I).second)
+        C.Wires.push_back(W->First + I);
+  }
+  O.NumWires = uint32_t(C.Wires.size() - O.FirstWire);
+  return addOp(O);
+}
+
+llvm::Expected<uint32_t> Elaborator::makeCondition(const Statement &S) {
+  bool IsQuantum = false;
+  const ir::Register *R = findRegister(S.CondReg.Name, IsQuantum);
+  unsigned Len = unsigned(S.CondReg.Name.size());
+  if (!R)
+    return errorAt(S.CondReg.Loc,
+                   fmt::format("use of undeclared classical register '{}' in "
+                               "'if'",
+                               S.CondReg.Name.str()),
+                   Len);
+  if (IsQuantum)
+    return errorAt(S.CondReg.Loc,
+                   fmt::format("'{}' is a quantum register; 'if' compares a "
+                               "classical register",
+                               S.CondReg.Name.str()),
+                   Len);
+  ir::Condition Cd;
+  Cd.CReg = uint32_t(R - C.CRegs.data());
+  // Enough bits for the decimal digits: ceil(digits * log2(10)) + 1.
+  unsigned Bits = unsigned(S.CondValue.size() * 3322 / 1000 + 2);
+  llvm::APInt V(Bits, S.CondValue, 10);
+  if (V.getActiveBits() > R->Size) {
+    Cd.Unsatisfiable = true;
+    Warnings.warn(S.CondValueLoc,
+                  fmt::format("condition can never hold: register '{}' has {} "
+                              "bit{} and cannot equal {}",
+                              R->Name, R->Size, R->Size == 1 ? "" : "s",
+                              S.CondValue.str()),
+                  unsigned(S.CondValue.size()));
+    Cd.Value = llvm::APInt(R->Size, 0);
+  } else {
+    Cd.Value = V.zextOrTrunc(R->Size);
+  }
+  C.Conditions.push_back(std::move(Cd));
+  return uint32_t(C.Conditions.size() - 1);
+}
+
+} // namespace
+
+llvm::Expected<ir::Circuit> buildCircuit(SourceFiles &Files, unsigned BufferId,
+                                         const FrontendOptions &Opts,
+                                         DiagnosticSink &Warnings) {
+  Elaborator E(Opts.Limits, Warnings);
+  if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings))
+    return std::move(Err);
+  return E.take();
+}
+
+} // namespace revbound::qasm

@@ -1,0 +1,81 @@
+//===- JsonWriter.cpp - The report as JSON (docs/json.md) ----------------===//
+#include "revbound/report/Writers.h"
+
+#include <nlohmann/json.hpp>
+
+namespace revbound::report {
+
+using Json = nlohmann::ordered_json;
+
+static Json counts(const analysis::NamedCounts &C) {
+  Json J = Json::object();
+  for (const auto &[Name, N] : C)
+    J[Name] = N;
+  return J;
+}
+
+static Json point(const SourcePoint &P) {
+  Json J = Json::object();
+  J["file"] = P.File;
+  J["line"] = P.Line;
+  J["column"] = P.Column;
+  return J;
+}
+
+static Json circuitJson(const CircuitReport &C) {
+  Json J;
+  J["file"] = C.File;
+  J["qubits"] = C.Qubits;
+  J["clbits"] = C.Clbits;
+  J["granularity"] = C.Granularity;
+  const analysis::Census &O = C.Ops;
+  J["ops"] = {
+      {"as_written", counts(O.AsWritten)},
+      {"by_name", counts(O.ByName)},
+      {"primitive", {{"U", O.PrimitiveU}, {"CX", O.PrimitiveCX}}},
+      {"gates", O.Gates},
+      {"measure", O.Measure},
+      {"reset", O.Reset},
+      {"barrier", O.Barrier},
+      {"t_count", O.TCount},
+      {"two_qubit", O.TwoQubit},
+      {"conditional", O.Conditional},
+  };
+  J["depth"] = {{"all", C.DepthAll}, {"two_qubit", C.DepthTwoQubit}, {"t", C.DepthT}};
+  J["volume"] = C.Volume;
+  Json Steps = Json::array();
+  for (const PathStep &S : C.Path.Listed) {
+    Json Step;
+    Step["gate"] = S.Gate;
+    Step["wires"] = S.Wires;
+    Step["line"] = S.At.Line;
+    Step["column"] = S.At.Column;
+    if (S.Inside.Line != 0)
+      Step["inside"] = point(S.Inside);
+    Steps.push_back(std::move(Step));
+  }
+  J["critical_path"] = {{"method", C.Path.Method},
+                        {"length", C.Path.Length},
+                        {"steps", C.Path.Steps},
+                        {"listed", std::move(Steps)}};
+  Json Warnings = Json::array();
+  for (const Finding &F : C.Warnings) {
+    Json W = point(F.At);
+    W["message"] = F.Message;
+    Warnings.push_back(std::move(W));
+  }
+  J["warnings"] = std::move(Warnings);
+  return J;
+}
+
+std::string writeJson(const Report &R) {
+  Json Root;
+  Root["schema"] = SchemaVersion;
+  Json Circuits = Json::array();
+  for (const CircuitReport &C : R.Circuits)
+    Circuits.push_back(circuitJson(C));
+  Root["circuits"] = std::move(Circuits);
+  return Root.dump(2) + "\n";
+}
+
+} // namespace revbound::report

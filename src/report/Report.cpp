@@ -1,0 +1,136 @@
+//===- Report.cpp - Running the analyses into a Report --------------------===//
+#include "revbound/report/Report.h"
+#include "revbound/analysis/LeafDag.h"
+#include "revbound/analysis/Schedule.h"
+
+namespace revbound::report {
+
+static SourcePoint pointOf(const SourceFiles &Files, llvm::SMLoc Loc) {
+  SourcePoint P;
+  if (!Loc.isValid())
+    return P;
+  ResolvedLocation R = resolve(Files.mgr(), Loc);
+  P.File = R.File;
+  P.Line = R.Line;
+  P.Column = R.Column;
+  return P;
+}
+
+static std::vector<std::string> wireNames(const ir::Circuit &C,
+                                          llvm::ArrayRef<uint32_t> Wires) {
+  std::vector<std::string> Out;
+  for (uint32_t W : Wires)
+    Out.push_back(W < C.NumQubits ? C.qubitName(W)
+                                  : C.clbitName(W - C.NumQubits));
+  return Out;
+}
+
+static std::string opName(const ir::Circuit &C, ir::OpKind K, ir::GateId G) {
+  switch (K) {
+  case ir::OpKind::Gate:
+    return C.gate(G).Name;
+  case ir::OpKind::Measure:
+    return "measure";
+  case ir::OpKind::Reset:
+    return "reset";
+  case ir::OpKind::Barrier:
+    return "barrier";
+  }
+  return "?";
+}
+
+static llvm::Error fillPath(const ir::Circuit &C, const SourceFiles &Files,
+                            analysis::SummaryCache &Cache,
+                            const analysis::Schedule &S,
+                            const AnalysisOptions &Opts, CriticalPath &Out) {
+  Out.Length = S.Depth[unsigned(analysis::DepthMetric::All)];
+  llvm::Expected<std::optional<analysis::LeafDag>> Dag =
+      analysis::LeafDag::build(C, Cache, Opts.MaxDagNodes);
+  if (!Dag)
+    return Dag.takeError();
+  if (*Dag) {
+    Out.Method = "dag";
+    std::vector<uint32_t> Nodes;
+    (*Dag)->longestPath(Nodes);
+    Out.Steps = Nodes.size();
+    for (uint32_t N : Nodes) {
+      if (Out.Listed.size() >= Opts.MaxPathSteps)
+        break;
+      const analysis::LeafNode &L = (*Dag)->node(N);
+      PathStep P;
+      P.Gate = opName(C, L.Kind, L.Gate);
+      P.Wires = wireNames(C, L.Wires);
+      P.At = pointOf(Files, C.Ops[L.TopOp].Loc);
+      P.Inside = pointOf(Files, L.BodyLoc);
+      Out.Listed.push_back(std::move(P));
+    }
+    return llvm::Error::success();
+  }
+  Out.Method = "summary";
+  Out.Steps = S.CriticalOps.size();
+  for (uint32_t Index : S.CriticalOps) {
+    if (Out.Listed.size() >= Opts.MaxPathSteps)
+      break;
+    const ir::Op &O = C.Ops[Index];
+    PathStep P;
+    P.Gate = opName(C, O.Kind, O.Gate);
+    llvm::SmallVector<uint32_t, 4> Wires(C.wires(O).begin(), C.wires(O).end());
+    if (O.Kind == ir::OpKind::Measure)
+      Wires[1] += C.NumQubits;
+    P.Wires = wireNames(C, Wires);
+    P.At = pointOf(Files, O.Loc);
+    Out.Listed.push_back(std::move(P));
+  }
+  return llvm::Error::success();
+}
+
+llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
+                                             const SourceFiles &Files,
+                                             llvm::StringRef DisplayName,
+                                             const AnalysisOptions &Opts) {
+  CircuitReport R;
+  R.File = DisplayName.str();
+  R.Qubits = C.NumQubits;
+  R.Clbits = C.NumClbits;
+  R.Granularity = Opts.Policy.Custom
+                      ? "custom"
+                      : analysis::granularityName(Opts.Policy.Level);
+  analysis::SummaryCache Cache(C, Opts.Policy);
+  llvm::Expected<analysis::Census> Ops = analysis::takeCensus(C, Cache);
+  if (!Ops)
+    return Ops.takeError();
+  R.Ops = std::move(*Ops);
+  llvm::Expected<analysis::Schedule> S = analysis::scheduleCircuit(C, Cache);
+  if (!S)
+    return S.takeError();
+  R.DepthAll = S->Depth[unsigned(analysis::DepthMetric::All)];
+  R.DepthTwoQubit = S->Depth[unsigned(analysis::DepthMetric::TwoQubit)];
+  R.DepthT = S->Depth[unsigned(analysis::DepthMetric::T)];
+  R.Volume = S->Volume;
+  if (llvm::Error E = fillPath(C, Files, Cache, *S, Opts, R.Path))
+    return std::move(E);
+  return R;
+}
+
+llvm::Expected<CircuitReport> analyzeFile(SourceFiles &Files,
+                                          llvm::StringRef Path,
+                                          const qasm::FrontendOptions &Front,
+                                          const AnalysisOptions &Opts,
+                                          DiagnosticSink &Warnings) {
+  llvm::Expected<unsigned> Buffer = Files.loadMain(Path);
+  if (!Buffer)
+    return Buffer.takeError();
+  llvm::Expected<ir::Circuit> C =
+      qasm::buildCircuit(Files, *Buffer, Front, Warnings);
+  if (!C)
+    return C.takeError();
+  llvm::Expected<CircuitReport> R =
+      analyzeCircuit(*C, Files, Path == "-" ? "<stdin>" : Path, Opts);
+  if (!R)
+    return R.takeError();
+  for (const Diagnostic &D : Warnings.warnings())
+    R->Warnings.push_back({"warning", pointOf(Files, D.Loc), D.Message});
+  return R;
+}
+
+} // namespace revbound::report

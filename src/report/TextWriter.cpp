@@ -1,0 +1,72 @@
+//===- TextWriter.cpp - The report as a human summary --------------------===//
+#include "revbound/report/Writers.h"
+
+#include <fmt/format.h>
+
+namespace revbound::report {
+
+static std::string joinCounts(const analysis::NamedCounts &C) {
+  std::string Out;
+  for (const auto &[Name, N] : C) {
+    if (!Out.empty())
+      Out += ", ";
+    Out += fmt::format("{} {}", Name, N);
+  }
+  return Out.empty() ? "none" : Out;
+}
+
+static std::string stepText(const PathStep &S) {
+  std::string Wires;
+  for (const std::string &W : S.Wires)
+    Wires += (Wires.empty() ? "" : ",") + W;
+  std::string Where = fmt::format("line {}", S.At.Line);
+  if (S.Inside.Line != 0)
+    Where += fmt::format(", via line {}", S.Inside.Line);
+  return fmt::format("{} {} ({})", S.Gate, Wires, Where);
+}
+
+static void writeCircuit(const CircuitReport &C, std::string &Out) {
+  const analysis::Census &O = C.Ops;
+  Out += fmt::format("== {}\n", C.File);
+  Out += fmt::format("  size         {} qubits, {} classical bits\n", C.Qubits,
+                     C.Clbits);
+  Out += fmt::format("  leaves       {} granularity\n", C.Granularity);
+  Out += fmt::format("  gates        {} ({} on two or more qubits, T-count {})\n",
+                     O.Gates, O.TwoQubit, O.TCount);
+  Out += fmt::format("  non-unitary  {} measure, {} reset; {} barrier, "
+                     "{} under if\n",
+                     O.Measure, O.Reset, O.Barrier, O.Conditional);
+  Out += fmt::format("  by leaf      {}\n", joinCounts(O.ByName));
+  Out += fmt::format("  as written   {}\n", joinCounts(O.AsWritten));
+  Out += fmt::format("  to U and CX  {} U, {} CX\n", O.PrimitiveU, O.PrimitiveCX);
+  Out += fmt::format("  depth        {} layers ({} two-qubit, {} T)\n",
+                     C.DepthAll, C.DepthTwoQubit, C.DepthT);
+  Out += fmt::format("  volume       {} qubit-layers\n", C.Volume);
+  if (C.Path.Steps > 0) {
+    Out += fmt::format("  longest path {} steps ({} graph)\n", C.Path.Steps,
+                       C.Path.Method == "dag" ? "leaf" : "top-level");
+    unsigned Shown = 0;
+    for (const PathStep &S : C.Path.Listed) {
+      if (++Shown > 8)
+        break;
+      Out += fmt::format("               {}\n", stepText(S));
+    }
+    if (C.Path.Steps > 8)
+      Out += fmt::format("               ... {} more (see --format json)\n",
+                         C.Path.Steps - 8);
+  }
+  if (!C.Warnings.empty())
+    Out += fmt::format("  warnings     {}\n", C.Warnings.size());
+}
+
+std::string writeText(const Report &R) {
+  std::string Out;
+  for (size_t I = 0; I < R.Circuits.size(); ++I) {
+    if (I)
+      Out += '\n';
+    writeCircuit(R.Circuits[I], Out);
+  }
+  return Out;
+}
+
+} // namespace revbound::report

@@ -1,0 +1,160 @@
+//===- SourceFiles.cpp - Loading circuit files and includes safely --------===//
+#include "revbound/support/SourceFiles.h"
+#include "revbound/support/Diagnostics.h"
+
+#include "llvm/ADT/SmallString.h"
+#include "llvm/Support/FileSystem.h"
+#include "llvm/Support/MemoryBuffer.h"
+#include "llvm/Support/Path.h"
+
+#include <fmt/format.h>
+
+namespace revbound {
+
+namespace fs = llvm::sys::fs;
+namespace path = llvm::sys::path;
+
+static std::string canonical(llvm::StringRef P) {
+  llvm::SmallString<256> Real;
+  if (fs::real_path(P, Real))
+    return {};
+  return std::string(Real);
+}
+
+SourceFiles::SourceFiles(SourceOptions O) : Opts(std::move(O)) {
+  for (const std::string &P : Opts.IncludePaths) {
+    std::string C = canonical(P);
+    if (!C.empty())
+      Roots.push_back(C);
+  }
+}
+
+bool SourceFiles::insideRoots(llvm::StringRef RealPath) const {
+  if (Opts.AllowIncludeEscape)
+    return true;
+  for (const std::string &Root : Roots) {
+    if (RealPath.startswith(Root) &&
+        (RealPath.size() == Root.size() ||
+         path::is_separator(RealPath[Root.size()]) || Root == "/"))
+      return true;
+  }
+  return false;
+}
+
+llvm::Expected<unsigned> SourceFiles::readFile(llvm::StringRef Path,
+                                               llvm::StringRef Shown,
+                                               llvm::SMLoc Loc,
+                                               unsigned Length) {
+  fs::file_status Status;
+  if (std::error_code EC = fs::status(Path, Status))
+    return errorAt(Loc, fmt::format("cannot open '{}': {}", Shown.str(),
+                                    EC.message()), Length);
+  if (Status.type() != fs::file_type::regular_file)
+    return errorAt(Loc, fmt::format("'{}' is not a regular file", Shown.str()),
+                   Length);
+  if (Status.getSize() > Opts.MaxFileBytes)
+    return errorAt(Loc,
+                   fmt::format("'{}' is {} bytes, over the limit of {} bytes "
+                               "(--max-file-bytes)",
+                               Shown.str(), Status.getSize(), Opts.MaxFileBytes),
+                   Length);
+  auto BufOrErr = llvm::MemoryBuffer::getFile(Path, /*IsText=*/false,
+                                              /*RequiresNullTerminator=*/true);
+  if (!BufOrErr)
+    return errorAt(Loc, fmt::format("cannot read '{}': {}", Shown.str(),
+                                    BufOrErr.getError().message()), Length);
+  // The buffer keeps the file mapped; its identifier is the path as given,
+  // which is what diagnostics show.
+  unsigned Id = SM.AddNewSourceBuffer(std::move(*BufOrErr), llvm::SMLoc());
+  BufferPaths.resize(Id);
+  BufferPaths[Id - 1] = canonical(Path);
+  return Id;
+}
+
+llvm::Expected<unsigned> SourceFiles::loadMain(llvm::StringRef Path) {
+  if (Path == "-") {
+    auto BufOrErr = llvm::MemoryBuffer::getSTDIN();
+    if (!BufOrErr)
+      return errorAt(llvm::SMLoc(), fmt::format("cannot read standard input: {}",
+                                                BufOrErr.getError().message()));
+    if ((*BufOrErr)->getBufferSize() > Opts.MaxFileBytes)
+      return errorAt(llvm::SMLoc(),
+                     "standard input is over the file size limit (--max-file-bytes)");
+    unsigned Id = SM.AddNewSourceBuffer(
+        llvm::MemoryBuffer::getMemBufferCopy((*BufOrErr)->getBuffer(), "<stdin>"),
+        llvm::SMLoc());
+    BufferPaths.resize(Id);
+    Roots.push_back(canonical("."));
+    return Id;
+  }
+  llvm::Expected<unsigned> Id = readFile(Path, Path, llvm::SMLoc(), 0);
+  if (!Id)
+    return Id.takeError();
+  llvm::SmallString<256> Dir(BufferPaths[*Id - 1]);
+  path::remove_filename(Dir);
+  Roots.push_back(std::string(Dir));
+  return Id;
+}
+
+unsigned SourceFiles::addBuffer(llvm::StringRef Name, llvm::StringRef Contents) {
+  unsigned Id = SM.AddNewSourceBuffer(
+      llvm::MemoryBuffer::getMemBufferCopy(Contents, Name), llvm::SMLoc());
+  BufferPaths.resize(Id);
+  return Id;
+}
+
+llvm::StringRef SourceFiles::canonicalPath(unsigned BufferId) const {
+  if (BufferId == 0 || BufferId > BufferPaths.size())
+    return {};
+  return BufferPaths[BufferId - 1];
+}
+
+llvm::Expected<unsigned> SourceFiles::loadInclude(llvm::StringRef Name,
+                                                  llvm::SMLoc IncludeLoc,
+                                                  unsigned Length) {
+  if (Name.empty())
+    return errorAt(IncludeLoc, "empty include file name", Length);
+  if (path::is_absolute(Name) && !Opts.AllowIncludeEscape)
+    return errorAt(IncludeLoc,
+                   fmt::format("include '{}' is an absolute path; includes must "
+                               "stay inside the allowed roots (see --include-path)",
+                               Name.str()),
+                   Length);
+  // Candidates: beside the including file, then along the include path.
+  std::vector<std::string> Candidates;
+  unsigned From = SM.FindBufferContainingLoc(IncludeLoc);
+  // Paths are built from the including file's name as given, so that
+  // diagnostics show relative paths when the user gave relative ones.
+  llvm::SmallString<256> Base;
+  if (!canonicalPath(From).empty())
+    Base = path::parent_path(
+        SM.getMemoryBuffer(From)->getBufferIdentifier());
+  {
+    llvm::SmallString<256> C(Base);
+    path::append(C, Name);
+    Candidates.push_back(std::string(C));
+  }
+  for (const std::string &Root : Opts.IncludePaths) {
+    llvm::SmallString<256> C(Root);
+    path::append(C, Name);
+    Candidates.push_back(std::string(C));
+  }
+  for (const std::string &C : Candidates) {
+    if (!fs::exists(C))
+      continue;
+    std::string Real = canonical(C);
+    if (Real.empty() || !insideRoots(Real))
+      return errorAt(IncludeLoc,
+                     fmt::format("include '{}' resolves to '{}', outside the "
+                                 "allowed roots (the main file's folder and "
+                                 "--include-path)",
+                                 Name.str(), Real.empty() ? C : Real),
+                     Length);
+    return readFile(C, C, IncludeLoc, Length);
+  }
+  return errorAt(IncludeLoc,
+                 fmt::format("cannot find include file '{}'", Name.str()),
+                 Length);
+}
+
+} // namespace revbound

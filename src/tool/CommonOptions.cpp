@@ -1,0 +1,128 @@
+//===- CommonOptions.cpp - Options shared by the commands that read files -===//
+#include "Commands.h"
+
+#include "revbound/support/Diagnostics.h"
+
+#include "llvm/Support/FileSystem.h"
+#include "llvm/Support/Path.h"
+#include "llvm/Support/raw_ostream.h"
+
+#include <fmt/format.h>
+#include <iostream>
+
+namespace revbound::tool {
+
+void addInputOptions(CLI::App &Cmd, InputOptions &O) {
+  Cmd.add_option("files", O.Files, "OpenQASM 2.0 files ('-' for standard input)")
+      ->required();
+  Cmd.add_option("--include-path,-I", O.IncludePaths,
+                 "folder searched for includes and allowed as an include root");
+  Cmd.add_flag("--allow-include-escape", O.AllowIncludeEscape,
+               "let includes leave the allowed roots");
+  Cmd.add_option("--stdlib", O.StandardLibrary,
+                 "file that replaces the built-in qelib1.inc");
+  Cmd.add_option("--granularity", O.Granularity,
+                 "leaves for counts and depth: native or primitive (U and CX)")
+      ->check(CLI::IsMember({"native", "primitive"}));
+  Cmd.add_option("--native", O.Native, "user gates to keep whole as leaves")
+      ->delimiter(',');
+  Cmd.add_option("--max-qubits", O.Limits.MaxQubits, "qubit limit")
+      ->capture_default_str();
+  Cmd.add_option("--max-clbits", O.Limits.MaxClbits, "classical bit limit")
+      ->capture_default_str();
+  Cmd.add_option("--max-nesting", O.Limits.MaxNesting,
+                 "levels of gate definitions calling gates")
+      ->capture_default_str();
+  Cmd.add_option("--max-ops", O.Limits.MaxOps,
+                 "top-level operations after broadcasting")
+      ->capture_default_str();
+  Cmd.add_option("--max-file-bytes", O.MaxFileBytes, "size limit of every file read")
+      ->capture_default_str();
+  Cmd.add_option("--max-dag-nodes", O.MaxDagNodes,
+                 "largest leaf graph built for the critical path")
+      ->capture_default_str();
+}
+
+SourceOptions sourceOptions(const InputOptions &O) {
+  SourceOptions S;
+  S.IncludePaths = O.IncludePaths;
+  S.AllowIncludeEscape = O.AllowIncludeEscape;
+  S.MaxFileBytes = O.MaxFileBytes;
+  return S;
+}
+
+qasm::FrontendOptions frontendOptions(const InputOptions &O) {
+  qasm::FrontendOptions F;
+  F.Limits = O.Limits;
+  // Named on the command line, so it is read wherever it is.
+  F.Parser.StandardLibraryPath = O.StandardLibrary;
+  return F;
+}
+
+report::AnalysisOptions analysisOptions(const InputOptions &O) {
+  report::AnalysisOptions A;
+  A.Policy.Level = O.Granularity == "primitive" ? analysis::Granularity::Primitive
+                                                : analysis::Granularity::Native;
+  for (const std::string &N : O.Native)
+    A.Policy.NativeNames.insert(N);
+  A.MaxDagNodes = O.MaxDagNodes;
+  return A;
+}
+
+int analyzeAll(const InputOptions &O, report::Report &Out) {
+  qasm::FrontendOptions Front = frontendOptions(O);
+  report::AnalysisOptions Analysis = analysisOptions(O);
+  int Status = ExitOk;
+  for (const std::string &File : O.Files) {
+    SourceFiles Files(sourceOptions(O));
+    DiagnosticSink Warnings;
+    llvm::Expected<report::CircuitReport> R =
+        report::analyzeFile(Files, File, Front, Analysis, Warnings);
+    for (const Diagnostic &W : Warnings.warnings())
+      std::cerr << formatDiagnostic(Files.mgr(), W);
+    if (!R) {
+      llvm::handleAllErrors(R.takeError(), [&](const DiagnosticError &E) {
+        std::cerr << formatDiagnostic(Files.mgr(), E.diagnostic());
+      });
+      Status = ExitBadInput;
+      continue;
+    }
+    Out.Circuits.push_back(std::move(*R));
+  }
+  return Status;
+}
+
+int writeOutput(const std::string &Path, const std::string &Text) {
+  if (Path.empty() || Path == "-") {
+    std::cout << Text;
+    std::cout.flush();
+    return std::cout ? ExitOk : ExitInternal;
+  }
+  llvm::SmallString<256> Temp;
+  llvm::SmallString<256> Model(Path);
+  Model += ".tmp-%%%%%%";
+  int FD;
+  if (std::error_code EC = llvm::sys::fs::createUniqueFile(Model, FD, Temp)) {
+    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path, EC.message());
+    return ExitBadInput;
+  }
+  {
+    llvm::raw_fd_ostream OS(FD, /*shouldClose=*/true);
+    OS << Text;
+    OS.close();
+    if (OS.has_error()) {
+      llvm::sys::fs::remove(Temp);
+      std::cerr << fmt::format("error: cannot write '{}'\n", Path);
+      OS.clear_error();
+      return ExitBadInput;
+    }
+  }
+  if (std::error_code EC = llvm::sys::fs::rename(Temp, Path)) {
+    llvm::sys::fs::remove(Temp);
+    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path, EC.message());
+    return ExitBadInput;
+  }
+  return ExitOk;
+}
+
+} // namespace revbound::tool

@@ -24,54 +24,106 @@ LeafDag::~LeafDag() = default;
 
 namespace {
 
-/// Expands top-level ops into leaf nodes through gate bodies.
-class Expander {
+/// Expands top-level ops into vertices through gate bodies and records the
+/// edges: from the previous vertex on each wire (vertex ids are 1-based).
+class Builder {
 public:
-  Expander(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes,
-           std::vector<LeafNode> &Nodes)
-      : C(C), Cache(Cache), MaxNodes(MaxNodes), Nodes(Nodes) {}
+  Builder(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes,
+          std::vector<LeafNode> &Nodes)
+      : C(C), Cache(Cache), MaxNodes(MaxNodes), Nodes(Nodes),
+        Last(size_t(C.NumQubits) + C.NumClbits, 0) {}
 
-  /// False when the limit is passed.
+  std::vector<std::pair<uint32_t, uint32_t>> Edges;
+  std::vector<int64_t> Weights;
+
+  /// Adds a vertex on `Wires` that also waits for the vertices `ExtraIn`;
+  /// it becomes the last vertex on its wires unless `KeepLast`.
+  bool add(LeafNode N, llvm::ArrayRef<uint32_t> ExtraIn = {},
+           bool KeepLast = false) {
+    if (Nodes.size() >= MaxNodes)
+      return false;
+    uint32_t V = uint32_t(Nodes.size() + 1);
+    int64_t Weight = N.Kind == ir::OpKind::Barrier ? 0 : 1;
+    auto edge = [&](uint32_t From) {
+      Edges.push_back({From, V});
+      Weights.push_back(Weight);
+    };
+    edge(0);
+    for (uint32_t From : ExtraIn)
+      if (From != 0)
+        edge(From);
+    for (uint32_t W : N.Wires) {
+      if (Last[W] != 0 && Last[W] != V)
+        edge(Last[W]);
+      if (!KeepLast)
+        Last[W] = V;
+    }
+    Nodes.push_back(std::move(N));
+    return true;
+  }
+
   bool expandCall(uint32_t Top, ir::GateId G, llvm::ArrayRef<uint32_t> Wires,
-                  llvm::ArrayRef<double> Params, llvm::SMLoc BodyLoc,
-                  llvm::ArrayRef<uint32_t> CondBits) {
+                  llvm::ArrayRef<double> Params, llvm::SMLoc BodyLoc) {
     if (Cache.isLeaf(G)) {
-      if (Nodes.size() >= MaxNodes)
-        return false;
       LeafNode N;
       N.TopOp = Top;
       N.Gate = G;
       N.Wires.assign(Wires.begin(), Wires.end());
-      N.Wires.append(CondBits.begin(), CondBits.end());
       N.BodyLoc = BodyLoc;
-      Nodes.push_back(std::move(N));
-      return true;
+      return add(std::move(N));
     }
-    const ir::GateDef &D = C.gate(G);
     llvm::SmallVector<uint32_t, 4> Mapped;
     llvm::SmallVector<double, 4> SubParams;
-    for (const ir::BodyOp &B : D.Body) {
+    for (const ir::BodyOp &B : C.gate(G).Body) {
       Mapped.clear();
       for (uint32_t Local : B.Qubits)
         Mapped.push_back(Wires[Local]);
       if (B.IsBarrier) {
-        if (Nodes.size() >= MaxNodes)
-          return false;
         LeafNode N;
         N.TopOp = Top;
         N.Kind = ir::OpKind::Barrier;
         N.Wires.assign(Mapped.begin(), Mapped.end());
         N.BodyLoc = B.Loc;
-        Nodes.push_back(std::move(N));
+        if (!add(std::move(N)))
+          return false;
         continue;
       }
       SubParams.clear();
       for (const ir::ParamExpr &E : B.Params)
         SubParams.push_back(E.evaluate(Params));
-      if (!expandCall(Top, B.Callee, Mapped, SubParams, B.Loc, CondBits))
+      if (!expandCall(Top, B.Callee, Mapped, SubParams, B.Loc))
         return false;
     }
     return true;
+  }
+
+  /// A conditional call of a non-leaf gate: each argument first waits for
+  /// the condition bits, then the body runs as usual, and the bits are free
+  /// again once every argument is done (the semantics of Schedule.h).
+  bool expandConditionalCall(uint32_t Top, const ir::Op &O,
+                             llvm::ArrayRef<uint32_t> CondBits) {
+    llvm::SmallVector<uint32_t, 8> CondIn;
+    for (uint32_t B : CondBits)
+      CondIn.push_back(Last[B]);
+    llvm::ArrayRef<uint32_t> Args = C.wires(O);
+    for (uint32_t A : Args) {
+      LeafNode Wait;
+      Wait.TopOp = Top;
+      Wait.Kind = ir::OpKind::Barrier;
+      Wait.Wires.push_back(A);
+      if (!add(std::move(Wait), CondIn))
+        return false;
+    }
+    if (!expandCall(Top, O.Gate, Args, C.params(O), llvm::SMLoc()))
+      return false;
+    llvm::SmallVector<uint32_t, 8> Done;
+    for (uint32_t A : Args)
+      Done.push_back(Last[A]);
+    LeafNode Join;
+    Join.TopOp = Top;
+    Join.Kind = ir::OpKind::Barrier;
+    Join.Wires.assign(CondBits.begin(), CondBits.end());
+    return add(std::move(Join), Done);
   }
 
 private:
@@ -79,6 +131,7 @@ private:
   SummaryCache &Cache;
   uint64_t MaxNodes;
   std::vector<LeafNode> &Nodes;
+  std::vector<uint32_t> Last; // last vertex on each wire, 0 for none
 };
 
 } // namespace
@@ -86,50 +139,41 @@ private:
 llvm::Expected<std::optional<LeafDag>>
 LeafDag::build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes) {
   LeafDag Dag;
-  Expander X(C, Cache, MaxNodes, Dag.Nodes);
-  llvm::SmallVector<uint32_t, 8> CondBits, Wires;
+  Builder B(C, Cache, MaxNodes, Dag.Nodes);
+  llvm::SmallVector<uint32_t, 8> CondBits;
   for (uint32_t Top = 0; Top < C.Ops.size(); ++Top) {
     const ir::Op &O = C.Ops[Top];
     CondBits.clear();
     if (O.Cond != ir::NoCondition) {
       const ir::Register &R = C.CRegs[C.Conditions[O.Cond].CReg];
-      for (uint32_t B = 0; B < R.Size; ++B)
-        CondBits.push_back(C.NumQubits + R.Offset + B);
+      for (uint32_t Bit = 0; Bit < R.Size; ++Bit)
+        CondBits.push_back(C.NumQubits + R.Offset + Bit);
     }
     llvm::ArrayRef<uint32_t> W = C.wires(O);
-    if (O.Kind == ir::OpKind::Gate) {
-      if (!X.expandCall(Top, O.Gate, W, C.params(O), llvm::SMLoc(), CondBits))
-        return std::nullopt;
-      continue;
+    bool Leaf = O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate);
+    bool Ok = true;
+    if (!Leaf && CondBits.empty()) {
+      Ok = B.expandCall(Top, O.Gate, W, C.params(O), llvm::SMLoc());
+    } else if (!Leaf) {
+      Ok = B.expandConditionalCall(Top, O, CondBits);
+    } else {
+      // A leaf, measure, reset or barrier; condition bits are wires it syncs.
+      LeafNode N;
+      N.TopOp = Top;
+      N.Kind = O.Kind;
+      N.Gate = O.Gate;
+      N.Wires.assign(W.begin(), W.end());
+      if (O.Kind == ir::OpKind::Measure)
+        N.Wires[1] = C.NumQubits + W[1];
+      N.Wires.append(CondBits.begin(), CondBits.end());
+      Ok = B.add(std::move(N));
     }
-    if (Dag.Nodes.size() >= MaxNodes)
+    if (!Ok)
       return std::nullopt;
-    LeafNode N;
-    N.TopOp = Top;
-    N.Kind = O.Kind;
-    N.Wires.assign(W.begin(), W.end());
-    if (O.Kind == ir::OpKind::Measure)
-      N.Wires[1] = C.NumQubits + W[1];
-    N.Wires.append(CondBits.begin(), CondBits.end());
-    Dag.Nodes.push_back(std::move(N));
   }
-
   auto &G = Dag.G->G;
-  G = Graph::Type(Dag.Nodes.size() + 1);
-  std::vector<uint32_t> Last(size_t(C.NumQubits) + C.NumClbits, 0);
-  for (uint32_t I = 0; I < Dag.Nodes.size(); ++I) {
-    const LeafNode &N = Dag.Nodes[I];
-    int64_t Weight = N.Kind == ir::OpKind::Barrier ? 0 : 1;
-    uint32_t V = I + 1;
-    boost::add_edge(0, V, Weight, G);
-    for (uint32_t W : N.Wires) {
-      if (Last[W] == V) // a wire named twice, e.g. a condition bit measured
-        continue;
-      if (Last[W] != 0)
-        boost::add_edge(Last[W], V, Weight, G);
-      Last[W] = V;
-    }
-  }
+  G = Graph::Type(B.Edges.begin(), B.Edges.end(), B.Weights.begin(),
+                  Dag.Nodes.size() + 1);
   return std::optional<LeafDag>(std::move(Dag));
 }
 

@@ -1,5 +1,6 @@
 //===- Schedule.cpp - Depths, spacetime volume and the critical path -----===//
 #include "revbound/analysis/Schedule.h"
+#include "revbound/support/Checked.h"
 #include "revbound/support/Diagnostics.h"
 
 #include "llvm/ADT/SmallVector.h"
@@ -17,30 +18,33 @@ class Scheduler {
 public:
   Scheduler(const ir::Circuit &C, SummaryCache &Cache)
       : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
-        FirstUse(C.NumQubits, NoPath), LastOp(NumWires, NoOp),
+        FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0), LastOp(NumWires, NoOp),
         PredOp(C.Wires.size(), NoOp), PredWire(C.Wires.size(), 0) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
   }
 
   llvm::Error run();
-  Schedule finish();
+  llvm::Expected<Schedule> finish();
 
 private:
   void collectWires(const ir::Op &O);
   llvm::Error applyCall(uint32_t Index, const ir::Op &O,
                         const GateSummary &S);
   void applyLeaf(uint32_t Index, const ir::Op &O, bool IsT, bool UsesQubits);
-  void markUse(uint32_t Wire, uint64_t Start) {
-    if (Wire < C.NumQubits && FirstUse[Wire] == NoPath)
+  void markUse(uint32_t Wire, uint64_t Start, uint64_t End) {
+    if (Wire >= C.NumQubits)
+      return;
+    if (FirstUse[Wire] == NoPath)
       FirstUse[Wire] = Start;
+    LastUse[Wire] = End;
   }
 
   const ir::Circuit &C;
   SummaryCache &Cache;
   size_t NumWires;
   std::vector<uint64_t> Ready[NumDepthMetrics];
-  std::vector<uint64_t> FirstUse;
+  std::vector<uint64_t> FirstUse, LastUse; // per qubit, for the volume
   std::vector<uint32_t> LastOp;    // op that last advanced each wire
   std::vector<uint32_t> PredOp;    // per op wire slot: op before it on a longest path
   std::vector<uint32_t> PredWire;  // per op wire slot: the wire that path came in on
@@ -85,7 +89,7 @@ void Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
       }
       if (UsesQubits)
         for (unsigned I = 0; I < O.NumWires; ++I)
-          markUse(Wires[I], Start);
+          markUse(Wires[I], Start, Start + 1);
     }
     for (uint32_t W : Wires)
       R[W] = Start + Weight[M];
@@ -120,14 +124,16 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
     }
     if (All)
       for (unsigned J = 0; J < K; ++J) {
-        uint64_t First = NoPath;
+        uint64_t First = NoPath, Last = NoPath;
         for (unsigned I = 0; I < K; ++I) {
-          uint64_t F = S.FirstUse.at(I, J);
+          uint64_t F = S.FirstUse.at(I, J), L = S.LastUse.at(I, J);
           if (F != NoPath)
             First = First == NoPath ? In[I] + F : std::max(First, In[I] + F);
+          if (L != NoPath)
+            Last = Last == NoPath ? In[I] + L : std::max(Last, In[I] + L);
         }
         if (First != NoPath)
-          markUse(Wires[J], First);
+          markUse(Wires[J], First, Last);
       }
     uint64_t Latest = CondReady;
     for (unsigned J = 0; J < K; ++J) {
@@ -187,15 +193,17 @@ llvm::Error Scheduler::run() {
   return llvm::Error::success();
 }
 
-Schedule Scheduler::finish() {
+llvm::Expected<Schedule> Scheduler::finish() {
   Schedule Out;
   for (unsigned M = 0; M < NumDepthMetrics; ++M)
     for (uint64_t V : Ready[M])
       Out.Depth[M] = std::max(Out.Depth[M], V);
   const std::vector<uint64_t> &All = Ready[unsigned(DepthMetric::All)];
   for (uint32_t Q = 0; Q < C.NumQubits; ++Q)
-    if (FirstUse[Q] != NoPath)
-      Out.Volume += All[Q] - FirstUse[Q];
+    if (FirstUse[Q] != NoPath &&
+        !addChecked(Out.Volume, LastUse[Q] - FirstUse[Q]))
+      return errorAt(llvm::SMLoc(), "the spacetime volume passes 2^64-1 "
+                                    "qubit-layers; revbound will not wrap it");
   // Walk back from the wire that finishes last.
   uint32_t Wire = 0;
   for (uint32_t W = 1; W < All.size(); ++W)

@@ -163,6 +163,7 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
       S[size_t(W) * K + W] = 0;
   }
   std::vector<uint64_t> FirstUse(size_t(K) * K, NoPath);
+  std::vector<uint64_t> LastUse(size_t(K) * K, NoPath);
   std::vector<bool> Touched(K, false);
   llvm::DenseMap<ir::GateId, uint64_t> Counts;
   std::vector<uint64_t> Start(K), NewRows;
@@ -213,8 +214,11 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
         for (unsigned I = 0; I < K; ++I)
           if (!plusPath(Start[I], Weight[M], Start[I]))
             return overflowAt(Loc, Def);
-        for (uint32_t X : A)
+        for (uint32_t X : A) {
           std::copy(Start.begin(), Start.end(), S.begin() + size_t(X) * K);
+          if (M == unsigned(DepthMetric::All))
+            std::copy(Start.begin(), Start.end(), LastUse.begin() + size_t(X) * K);
+        }
       }
       continue;
     }
@@ -259,6 +263,25 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
           if (Any)
             Touched[A[J]] = true;
         }
+        // The callee's last use of a wire, where it has one, is the latest.
+        for (unsigned J = 0; J < KA; ++J) {
+          bool Any = false;
+          std::vector<uint64_t> Row(K, NoPath);
+          for (unsigned Lw = 0; Lw < KA; ++Lw) {
+            uint64_t F = Sub.LastUse.at(Lw, J);
+            if (F == NoPath)
+              continue;
+            for (unsigned I = 0; I < K; ++I) {
+              uint64_t V;
+              if (!plusPath(S[size_t(A[Lw]) * K + I], F, V))
+                return overflowAt(Loc, Def);
+              Row[I] = maxPath(Row[I], V);
+              Any = true;
+            }
+          }
+          if (Any)
+            std::copy(Row.begin(), Row.end(), LastUse.begin() + size_t(A[J]) * K);
+        }
       }
       std::fill(NewRows.begin(), NewRows.end(), NoPath);
       for (unsigned J = 0; J < KA; ++J)
@@ -288,9 +311,12 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
         Out->Depth[M].at(I, J) = State[M][size_t(J) * K + I];
   }
   Out->FirstUse = DelayMatrix(K);
+  Out->LastUse = DelayMatrix(K);
   for (unsigned J = 0; J < K; ++J)
-    for (unsigned I = 0; I < K; ++I)
+    for (unsigned I = 0; I < K; ++I) {
       Out->FirstUse.at(I, J) = FirstUse[size_t(J) * K + I];
+      Out->LastUse.at(I, J) = LastUse[size_t(J) * K + I];
+    }
   for (const auto &[Leaf, N] : Counts)
     Out->LeafCounts.push_back({Leaf, N});
   llvm::sort(Out->LeafCounts);

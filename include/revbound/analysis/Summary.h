@@ -60,6 +60,9 @@ struct GateSummary {
   /// first leaf on wire j (NoPath if no leaf touches j). Gives the layer in
   /// which a call first uses each wire, for the spacetime volume.
   DelayMatrix FirstUse;
+  /// Likewise to the end of the last leaf on wire j: a barrier after the last
+  /// use moves a wire's ready time but not its last use.
+  DelayMatrix LastUse;
 };
 
 /// Full expansion of a gate to the built-ins (opaque gates cannot expand).

@@ -1,0 +1,115 @@
+//===- ElaborationTest.cpp - Broadcasting, conditions, weak definitions ---===//
+//
+// Semantics from the OpenQASM 2.0 specification (Cross et al.,
+// arXiv:1707.03429, section 3): a statement over registers of size n means n
+// applications, single qubits being repeated; measure and reset broadcast the
+// same way; `if(c==n)` compares the whole register, its first bit the least
+// significant.
+//
+//===----------------------------------------------------------------------===//
+#include "TestSupport.h"
+
+#include <gtest/gtest.h>
+
+using revbound::test::elaborate;
+using namespace revbound;
+
+static std::vector<std::vector<uint32_t>> wiresOf(const ir::Circuit &C) {
+  std::vector<std::vector<uint32_t>> Out;
+  for (const ir::Op &O : C.Ops) {
+    auto W = C.wires(O);
+    Out.emplace_back(W.begin(), W.end());
+  }
+  return Out;
+}
+
+TEST(Elaboration, BroadcastRegistersAndSingles) {
+  test::Elaborated E = elaborate("OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                                 "qreg a[3];\nqreg b[3];\n"
+                                 "cx a, b;\ncx a[0], b;\nh a;\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  // a = qubits 0..2, b = 3..5.
+  EXPECT_EQ(wiresOf(*E.Circuit),
+            (std::vector<std::vector<uint32_t>>{
+                {0, 3}, {1, 4}, {2, 5}, {0, 3}, {0, 4}, {0, 5}, {0}, {1}, {2}}));
+}
+
+TEST(Elaboration, MeasureResetAndBarrierBroadcast) {
+  test::Elaborated E = elaborate("OPENQASM 2.0;\nqreg q[2];\nqreg r[1];\n"
+                                 "creg c[2];\nmeasure q->c;\nreset q;\n"
+                                 "barrier q, r[0], q[1];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  const ir::Circuit &C = *E.Circuit;
+  ASSERT_EQ(C.Ops.size(), 5u);
+  EXPECT_EQ(C.Ops[0].Kind, ir::OpKind::Measure);
+  EXPECT_EQ(wiresOf(C),
+            (std::vector<std::vector<uint32_t>>{{0, 0}, {1, 1}, {0}, {1}, {0, 1, 2}}));
+  EXPECT_EQ(C.Ops[4].Kind, ir::OpKind::Barrier);
+}
+
+TEST(Elaboration, PublishedFileQuirks) {
+  // Gate argument names equal to register names, a gate named id, a
+  // parameter named lambda, CRLF, tabs, a space before '(', no final newline
+  // (all seen in the standard's examples and QASMBench; SOURCES.md).
+  test::Elaborated E = elaborate(
+      "OPENQASM 2.0;\r\ninclude \"qelib1.inc\";\r\n"
+      "qreg q[2];\tqreg a[1];\r\n"
+      "gate mine(lambda) q, a { u1 (lambda) q; cx q,a; id a; }\r\n"
+      "mine (pi/4) q[0], a[0]; id q[1];\r\nmeasure q[0]->q[0];");
+  EXPECT_NE(E.Error, "");
+  E = elaborate("OPENQASM 2.0;\r\ninclude \"qelib1.inc\";\r\n"
+                "qreg q[2];\tqreg a[1];\tcreg c[1];\r\n"
+                "gate mine(lambda) q, a { u1 (lambda) q; cx q,a; id a; }\r\n"
+                "mine (pi/4) q[0], a[0]; id q[1];\r\nmeasure q[0]->c[0];");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  EXPECT_EQ(E.Circuit->Ops.size(), 3u);
+}
+
+TEST(Elaboration, ConditionsWiderThan64Bits) {
+  // 2^70 - 1 = 1180591620717411303423 fits a 70-bit register exactly.
+  test::Elaborated E = elaborate("OPENQASM 2.0;\nqreg q[1];\ncreg c[70];\n"
+                                 "if(c==1180591620717411303423) U(0,0,0) q[0];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  ASSERT_EQ(E.Circuit->Conditions.size(), 1u);
+  const ir::Condition &Cd = E.Circuit->Conditions[0];
+  EXPECT_FALSE(Cd.Unsatisfiable);
+  EXPECT_EQ(Cd.Value.getBitWidth(), 70u);
+  EXPECT_TRUE(Cd.Value.isAllOnes());
+  // 2^70 needs 71 bits: it can never hold, and we say so.
+  E = elaborate("OPENQASM 2.0;\nqreg q[1];\ncreg c[70];\n"
+                "if(c==1180591620717411303424) U(0,0,0) q[0];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  EXPECT_TRUE(E.Circuit->Conditions[0].Unsatisfiable);
+  EXPECT_EQ(E.Warnings.size(), 1u);
+}
+
+TEST(Elaboration, LibraryGatesAreWeak) {
+  test::Elaborated E = elaborate(
+      "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+      "gate h a { U(pi/2,0,pi) a; }\ngate cx a, b { CX a, b; }\n"
+      "qreg q[2];\nh q[0];\ncx q[0], q[1];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  const ir::Circuit &C = *E.Circuit;
+  EXPECT_EQ(C.gate(C.GateByName.lookup("h")).Origin, ir::GateOrigin::User);
+  EXPECT_EQ(C.gate(C.GateByName.lookup("cx")).Origin, ir::GateOrigin::User);
+  EXPECT_EQ(C.gate(C.GateByName.lookup("ccx")).Origin,
+            ir::GateOrigin::StandardLibrary);
+}
+
+TEST(Elaboration, OpaqueGates) {
+  test::Elaborated E = elaborate("OPENQASM 2.0;\nopaque magic(a, b) x, y;\n"
+                                 "qreg q[2];\nmagic(1, 2) q[0], q[1];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  EXPECT_EQ(E.Circuit->gate(E.Circuit->Ops[0].Gate).Origin, ir::GateOrigin::Opaque);
+  EXPECT_EQ(E.Circuit->params(E.Circuit->Ops[0]), (llvm::ArrayRef<double>{1, 2}));
+}
+
+TEST(Elaboration, OpLimit) {
+  qasm::FrontendOptions Opts;
+  Opts.Limits.MaxOps = 4;
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[5];\nU(0,0,0) q;\n", Opts).Error,
+            "test.qasm:3:1: error: more than 4 top-level operations after "
+            "broadcasting (--max-ops)\n"
+            "U(0,0,0) q;\n"
+            "^\n");
+}

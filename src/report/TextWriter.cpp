@@ -19,9 +19,9 @@ static std::string stepText(const PathStep &S) {
   std::string Wires;
   for (const std::string &W : S.Wires)
     Wires += (Wires.empty() ? "" : ",") + W;
-  std::string Where = fmt::format("line {}", S.At.Line);
+  std::string Where = fmt::format("{}:{}", S.At.Line, S.At.Column);
   if (S.Inside.Line != 0)
-    Where += fmt::format(", via line {}", S.Inside.Line);
+    Where += fmt::format(" via {}:{}", S.Inside.Line, S.Inside.Column);
   return fmt::format("{} {} ({})", S.Gate, Wires, Where);
 }
 

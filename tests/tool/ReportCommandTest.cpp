@@ -1,0 +1,182 @@
+//===- ReportCommandTest.cpp - `revbound report` as a user runs it --------===//
+//
+// Runs the real executable: exit codes (DESIGN.md: 0 ok, 2 bad input or
+// usage), JSON contract fields, determinism, standard input, -o.
+//
+//===----------------------------------------------------------------------===//
+#include <gtest/gtest.h>
+#include <nlohmann/json.hpp>
+
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <sys/wait.h>
+#include <unistd.h>
+
+namespace fs = std::filesystem;
+
+namespace {
+
+struct Outcome {
+  int Exit = -1;
+  std::string Out, Err;
+};
+
+std::string slurp(const fs::path &P) {
+  std::ifstream In(P, std::ios::binary);
+  std::stringstream S;
+  S << In.rdbuf();
+  return S.str();
+}
+
+class ReportCommand : public ::testing::Test {
+protected:
+  void SetUp() override {
+    Dir = fs::temp_directory_path() /
+          ("revbound-tool-" + std::to_string(::getpid()) + "-" +
+           ::testing::UnitTest::GetInstance()->current_test_info()->name());
+    fs::remove_all(Dir);
+    fs::create_directories(Dir);
+  }
+  void TearDown() override { fs::remove_all(Dir); }
+
+  fs::path write(const std::string &Name, const std::string &Text) {
+    fs::path P = Dir / Name;
+    std::ofstream(P, std::ios::binary) << Text;
+    return P;
+  }
+
+  /// Runs revbound with `Args` (a shell fragment) in Dir.
+  Outcome invoke(const std::string &Args, const std::string &Stdin = "") {
+    fs::path In = write("stdin.txt", Stdin);
+    std::string Cmd = "cd '" + Dir.string() + "' && '" REVBOUND_BINARY "' " +
+                      Args + " <'" + In.string() + "' >'" +
+                      (Dir / "out.txt").string() + "' 2>'" +
+                      (Dir / "err.txt").string() + "'";
+    int Status = std::system(Cmd.c_str());
+    Outcome R;
+    R.Exit = WIFEXITED(Status) ? WEXITSTATUS(Status) : -1;
+    R.Out = slurp(Dir / "out.txt");
+    R.Err = slurp(Dir / "err.txt");
+    return R;
+  }
+
+  fs::path Dir;
+};
+
+const char *Bell = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                   "qreg q[2];\ncreg c[2];\nh q[0];\ncx q[0], q[1];\n"
+                   "measure q -> c;\n";
+
+} // namespace
+
+TEST_F(ReportCommand, JsonContract) {
+  write("bell.qasm", Bell);
+  Outcome R = invoke("report --format json bell.qasm");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  nlohmann::json J = nlohmann::json::parse(R.Out);
+  EXPECT_EQ(J["schema"], "revbound/report-1");
+  ASSERT_EQ(J["circuits"].size(), 1u);
+  const nlohmann::json &C = J["circuits"][0];
+  EXPECT_EQ(C["file"], "bell.qasm");
+  EXPECT_EQ(C["qubits"], 2);
+  EXPECT_EQ(C["clbits"], 2);
+  EXPECT_EQ(C["ops"]["by_name"]["h"], 1);
+  EXPECT_EQ(C["ops"]["by_name"]["cx"], 1);
+  EXPECT_EQ(C["ops"]["primitive"]["U"], 1);
+  EXPECT_EQ(C["ops"]["primitive"]["CX"], 1);
+  EXPECT_EQ(C["ops"]["gates"], 2);
+  EXPECT_EQ(C["ops"]["measure"], 2);
+  EXPECT_EQ(C["depth"]["all"], 3);
+  EXPECT_EQ(C["depth"]["two_qubit"], 1);
+  EXPECT_EQ(C["critical_path"]["length"], 3);
+  // Later issues fill these; until then they are absent, never faked.
+  EXPECT_FALSE(C.contains("erasures"));
+  EXPECT_FALSE(C.contains("speed"));
+}
+
+TEST_F(ReportCommand, DeterministicAndStdin) {
+  write("bell.qasm", Bell);
+  Outcome A = invoke("report --format json bell.qasm");
+  Outcome B = invoke("report --format json bell.qasm");
+  EXPECT_EQ(A.Out, B.Out);
+  Outcome S = invoke("report --format json -", Bell);
+  ASSERT_EQ(S.Exit, 0) << S.Err;
+  EXPECT_EQ(nlohmann::json::parse(S.Out)["circuits"][0]["file"], "<stdin>");
+}
+
+TEST_F(ReportCommand, SeveralFilesAndOutputFile) {
+  write("a.qasm", Bell);
+  write("b.qasm", "OPENQASM 2.0;\nqreg q[1];\nU(0,0,0) q[0];\n");
+  Outcome R = invoke("report --format json -o out.json a.qasm b.qasm");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  EXPECT_EQ(R.Out, "");
+  nlohmann::json J = nlohmann::json::parse(slurp(Dir / "out.json"));
+  ASSERT_EQ(J["circuits"].size(), 2u);
+  EXPECT_EQ(J["circuits"][1]["file"], "b.qasm");
+  // No temporary file is left beside the output.
+  int Files = 0;
+  for (const auto &E : fs::directory_iterator(Dir))
+    Files += E.path().filename().string().find(".tmp-") != std::string::npos;
+  EXPECT_EQ(Files, 0);
+}
+
+TEST_F(ReportCommand, BadInputExitsTwoWithDiagnostic) {
+  write("bad.qasm", "OPENQASM 2.0;\nqreg q[2];\nCX q[0], q[0];\n");
+  write("good.qasm", Bell);
+  Outcome R = invoke("report good.qasm bad.qasm");
+  EXPECT_EQ(R.Exit, 2);
+  EXPECT_EQ(R.Out, "");
+  EXPECT_EQ(R.Err,
+            "bad.qasm:3:10: error: qubit q[0] is used twice in one application of 'CX'\n"
+            "CX q[0], q[0];\n"
+            "         ^~~~\n");
+  Outcome Missing = invoke("report nope.qasm");
+  EXPECT_EQ(Missing.Exit, 2);
+  EXPECT_NE(Missing.Err.find("cannot open 'nope.qasm'"), std::string::npos);
+}
+
+TEST_F(ReportCommand, UsageErrorsExitTwo) {
+  EXPECT_EQ(invoke("").Exit, 2);
+  EXPECT_EQ(invoke("report").Exit, 2);
+  write("bell.qasm", Bell);
+  EXPECT_EQ(invoke("report --format yaml bell.qasm").Exit, 2);
+  EXPECT_EQ(invoke("report --bogus bell.qasm").Exit, 2);
+  EXPECT_EQ(invoke("report --help").Exit, 0);
+}
+
+TEST_F(ReportCommand, WarningsDoNotChangeTheExitCode) {
+  write("nohead.qasm", "include \"qelib1.inc\";\nqreg q[1];\nx q[0];\n");
+  Outcome R = invoke("report --format json nohead.qasm");
+  EXPECT_EQ(R.Exit, 0);
+  EXPECT_NE(R.Err.find("warning: missing 'OPENQASM 2.0;' header"), std::string::npos);
+  nlohmann::json J = nlohmann::json::parse(R.Out);
+  EXPECT_EQ(J["circuits"][0]["warnings"].size(), 1u);
+}
+
+// Counts past 2^53 must be exact JSON integers: 2^60 x gates through 60
+// levels of doubling definitions (2^60 = 1152921504606846976, exact).
+TEST_F(ReportCommand, HugeCountsAreExactIntegers) {
+  std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\ngate g0 a { x a; }\n";
+  for (int K = 1; K <= 60; ++K)
+    Text += "gate g" + std::to_string(K) + " a { g" + std::to_string(K - 1) +
+            " a; g" + std::to_string(K - 1) + " a; }\n";
+  Text += "qreg q[1];\ng60 q[0];\n";
+  write("huge.qasm", Text);
+  Outcome R = invoke("report --format json huge.qasm");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  EXPECT_NE(R.Out.find("\"gates\": 1152921504606846976"), std::string::npos);
+  EXPECT_NE(R.Out.find("\"all\": 1152921504606846976"), std::string::npos);
+  // Four more doublings pass 2^64 - 1: an error, not a wrapped count.
+  for (int K = 61; K <= 64; ++K)
+    Text.insert(Text.find("qreg"), "gate g" + std::to_string(K) + " a { g" +
+                                       std::to_string(K - 1) + " a; g" +
+                                       std::to_string(K - 1) + " a; }\n");
+  Text.replace(Text.find("g60 q[0]"), 3, "g64");
+  write("huger.qasm", Text);
+  R = invoke("report huger.qasm");
+  EXPECT_EQ(R.Exit, 2);
+  EXPECT_NE(R.Err.find("passes 2^64-1"), std::string::npos);
+}

@@ -125,8 +125,13 @@ SummaryCache::get(ir::GateId G, llvm::ArrayRef<double> Params, llvm::SMLoc Loc) 
     return It->second.get();
   // Bound the memory of files that call one gate with millions of distinct
   // angles; only safe at the outermost call, where no summary is in use.
-  if (Depth == 0 && ByParams.size() > 65536)
+  if (Depth == 0 && ByParams.size() > 65536) {
+    for (const auto &[Key, S] : ByParams) {
+      uint64_t K = S->Depth[0].size();
+      MatrixEntries -= uint64_t(NumDepthMetrics + 2) * K * K;
+    }
     ByParams.clear();
+  }
   llvm::Expected<std::unique_ptr<GateSummary>> S = compute(G, Params, Loc);
   if (!S)
     return S.takeError();
@@ -147,6 +152,12 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
                       llvm::SMLoc Loc) {
   const ir::GateDef &Def = C.gate(G);
   unsigned K = Def.numQubits();
+  MatrixEntries += uint64_t(NumDepthMetrics + 2) * K * K;
+  if (MatrixEntries > MaxMatrixEntries)
+    return errorAt(Loc, fmt::format("summarising gate '{}' would take more than "
+                                    "{} MiB of delay matrices; the file's gates "
+                                    "are too many or too wide",
+                                    Def.Name, MaxMatrixEntries * 8 >> 20));
   auto Out = std::make_unique<GateSummary>();
   ++Depth;
   struct Leave {

@@ -27,6 +27,7 @@ struct InputOptions {
   std::string Granularity = "native";
   std::vector<std::string> Native;
   qasm::FrontendLimits Limits;
+  unsigned MaxIncludeDepth = 16;
   uint64_t MaxDagNodes = 200'000;
 };
 

@@ -36,6 +36,9 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
   Cmd.add_option("--max-ops", O.Limits.MaxOps,
                  "top-level operations after broadcasting")
       ->capture_default_str();
+  Cmd.add_option("--max-include-depth", O.MaxIncludeDepth,
+                 "files open at once through nested includes")
+      ->capture_default_str();
   Cmd.add_option("--max-file-bytes", O.MaxFileBytes, "size limit of every file read")
       ->capture_default_str();
   Cmd.add_option("--max-dag-nodes", O.MaxDagNodes,
@@ -54,6 +57,7 @@ SourceOptions sourceOptions(const InputOptions &O) {
 qasm::FrontendOptions frontendOptions(const InputOptions &O) {
   qasm::FrontendOptions F;
   F.Limits = O.Limits;
+  F.Parser.MaxIncludeDepth = O.MaxIncludeDepth;
   // Named on the command line, so it is read wherever it is.
   F.Parser.StandardLibraryPath = O.StandardLibrary;
   return F;

@@ -108,6 +108,12 @@ private:
   std::unordered_map<std::string, std::unique_ptr<GateSummary>> ByParams;
   std::vector<std::unique_ptr<PrimitiveCounts>> Primitive;
   unsigned Depth = 0;
+  uint64_t MatrixEntries = 0; // summaries' memory, bounded by MaxMatrixEntries
+
+public:
+  /// Bound on the delay-matrix entries all summaries may hold (8 bytes each);
+  /// past it, summarising is an error rather than an allocation failure.
+  static constexpr uint64_t MaxMatrixEntries = uint64_t(1) << 27;
 };
 
 } // namespace revbound::analysis

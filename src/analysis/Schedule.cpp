@@ -12,7 +12,6 @@ namespace revbound::analysis {
 namespace {
 
 constexpr uint32_t NoOp = UINT32_MAX;
-constexpr uint64_t NoPath = DelayMatrix::NoPath;
 
 class Scheduler {
 public:

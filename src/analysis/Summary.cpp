@@ -20,25 +20,6 @@
 
 namespace revbound::analysis {
 
-static constexpr uint64_t NoPath = DelayMatrix::NoPath;
-
-static uint64_t maxPath(uint64_t A, uint64_t B) {
-  if (A == NoPath)
-    return B;
-  if (B == NoPath)
-    return A;
-  return std::max(A, B);
-}
-
-/// A + B in max-plus; false on overflow (a path of 2^64 - 1 layers or more).
-static bool plusPath(uint64_t A, uint64_t B, uint64_t &Out) {
-  if (A == NoPath || B == NoPath) {
-    Out = NoPath;
-    return true;
-  }
-  return !__builtin_add_overflow(A, B, &Out) && Out != NoPath;
-}
-
 static bool isQuarterTurn(double Angle) {
   double R = std::remainder(Angle, 2 * std::numbers::pi);
   return std::fabs(std::fabs(R) - std::numbers::pi / 4) < 1e-9;
@@ -165,72 +146,34 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
     ~Leave() { --D; }
   } L{Depth};
 
-  // State[m][w * K + i]: longest path from input i to the present end of
-  // wire w under metric m.
-  std::vector<uint64_t> State[NumDepthMetrics];
-  for (auto &S : State) {
-    S.assign(size_t(K) * K, NoPath);
-    for (unsigned W = 0; W < K; ++W)
-      S[size_t(W) * K + W] = 0;
-  }
-  std::vector<uint64_t> FirstUse(size_t(K) * K, NoPath);
-  std::vector<uint64_t> LastUse(size_t(K) * K, NoPath);
-  std::vector<bool> Touched(K, false);
+  BodyState<uint64_t> State[NumDepthMetrics] = {
+      BodyState<uint64_t>(K, /*TrackUses=*/true),
+      BodyState<uint64_t>(K, false), BodyState<uint64_t>(K, false)};
   llvm::DenseMap<ir::GateId, uint64_t> Counts;
-  std::vector<uint64_t> Start(K), NewRows;
   llvm::SmallVector<double, 4> CalleeParams;
 
   for (const ir::BodyOp &B : Def.Body) {
     llvm::ArrayRef<uint32_t> A = B.Qubits;
     if (B.IsBarrier) {
-      for (auto &S : State) {
-        std::fill(Start.begin(), Start.end(), NoPath);
-        for (uint32_t X : A)
-          for (unsigned I = 0; I < K; ++I)
-            Start[I] = maxPath(Start[I], S[size_t(X) * K + I]);
-        for (uint32_t X : A)
-          std::copy(Start.begin(), Start.end(), S.begin() + size_t(X) * K);
-      }
+      for (auto &S : State)
+        S.barrier(A);
       continue;
     }
     CalleeParams.clear();
     for (const ir::ParamExpr &E : B.Params)
       CalleeParams.push_back(E.evaluate(Params));
-    const ir::GateDef &Callee = C.gate(B.Callee);
 
     if (LeafFlags[B.Callee]) {
-      bool Ok = addChecked(Counts[B.Callee], 1) && addChecked(Out->Gates, 1);
-      bool IsT = isTLeaf(Callee, CalleeParams);
-      if (A.size() >= 2)
-        Ok = Ok && addChecked(Out->MultiQubit, 1);
-      if (IsT)
-        Ok = Ok && addChecked(Out->TCount, 1);
+      bool IsT = isTLeaf(C.gate(B.Callee), CalleeParams);
+      bool Multi = A.size() >= 2;
+      bool Ok = addChecked(Counts[B.Callee], 1) && addChecked(Out->Gates, 1) &&
+                addChecked(Out->MultiQubit, Multi) &&
+                addChecked(Out->TCount, IsT) &&
+                State[unsigned(DepthMetric::All)].leaf(A, 1) &&
+                State[unsigned(DepthMetric::TwoQubit)].leaf(A, Multi) &&
+                State[unsigned(DepthMetric::T)].leaf(A, IsT);
       if (!Ok)
         return overflowAt(Loc, Def);
-      uint64_t Weight[NumDepthMetrics] = {1, A.size() >= 2 ? 1u : 0u,
-                                          IsT ? 1u : 0u};
-      for (unsigned M = 0; M < NumDepthMetrics; ++M) {
-        std::vector<uint64_t> &S = State[M];
-        std::fill(Start.begin(), Start.end(), NoPath);
-        for (uint32_t X : A)
-          for (unsigned I = 0; I < K; ++I)
-            Start[I] = maxPath(Start[I], S[size_t(X) * K + I]);
-        if (M == unsigned(DepthMetric::All))
-          for (uint32_t X : A)
-            if (!Touched[X]) {
-              Touched[X] = true;
-              std::copy(Start.begin(), Start.end(),
-                        FirstUse.begin() + size_t(X) * K);
-            }
-        for (unsigned I = 0; I < K; ++I)
-          if (!plusPath(Start[I], Weight[M], Start[I]))
-            return overflowAt(Loc, Def);
-        for (uint32_t X : A) {
-          std::copy(Start.begin(), Start.end(), S.begin() + size_t(X) * K);
-          if (M == unsigned(DepthMetric::All))
-            std::copy(Start.begin(), Start.end(), LastUse.begin() + size_t(X) * K);
-        }
-      }
       continue;
     }
 
@@ -244,90 +187,21 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
               addChecked(Out->TCount, Sub.TCount);
     for (const auto &[Leaf, N] : Sub.LeafCounts)
       Ok = Ok && addChecked(Counts[Leaf], N);
+    Ok = Ok &&
+         State[unsigned(DepthMetric::All)].call(
+             A, Sub.Depth[unsigned(DepthMetric::All)], &Sub.FirstUse,
+             &Sub.LastUse) &&
+         State[unsigned(DepthMetric::TwoQubit)].call(
+             A, Sub.Depth[unsigned(DepthMetric::TwoQubit)]) &&
+         State[unsigned(DepthMetric::T)].call(A, Sub.Depth[unsigned(DepthMetric::T)]);
     if (!Ok)
       return overflowAt(Loc, Def);
-    unsigned KA = unsigned(A.size());
-    NewRows.assign(size_t(KA) * K, NoPath);
-    for (unsigned M = 0; M < NumDepthMetrics; ++M) {
-      std::vector<uint64_t> &S = State[M];
-      const DelayMatrix &D = Sub.Depth[M];
-      bool All = M == unsigned(DepthMetric::All);
-      if (All) {
-        // First use needs the state before this call.
-        for (unsigned J = 0; J < KA; ++J) {
-          if (Touched[A[J]])
-            continue;
-          bool Any = false;
-          for (unsigned Lw = 0; Lw < KA; ++Lw) {
-            uint64_t F = Sub.FirstUse.at(Lw, J);
-            if (F == NoPath)
-              continue;
-            for (unsigned I = 0; I < K; ++I) {
-              uint64_t V;
-              if (!plusPath(S[size_t(A[Lw]) * K + I], F, V))
-                return overflowAt(Loc, Def);
-              uint64_t &Slot = FirstUse[size_t(A[J]) * K + I];
-              Slot = maxPath(Slot, V);
-              Any = true;
-            }
-          }
-          if (Any)
-            Touched[A[J]] = true;
-        }
-        // The callee's last use of a wire, where it has one, is the latest.
-        for (unsigned J = 0; J < KA; ++J) {
-          bool Any = false;
-          std::vector<uint64_t> Row(K, NoPath);
-          for (unsigned Lw = 0; Lw < KA; ++Lw) {
-            uint64_t F = Sub.LastUse.at(Lw, J);
-            if (F == NoPath)
-              continue;
-            for (unsigned I = 0; I < K; ++I) {
-              uint64_t V;
-              if (!plusPath(S[size_t(A[Lw]) * K + I], F, V))
-                return overflowAt(Loc, Def);
-              Row[I] = maxPath(Row[I], V);
-              Any = true;
-            }
-          }
-          if (Any)
-            std::copy(Row.begin(), Row.end(), LastUse.begin() + size_t(A[J]) * K);
-        }
-      }
-      std::fill(NewRows.begin(), NewRows.end(), NoPath);
-      for (unsigned J = 0; J < KA; ++J)
-        for (unsigned Lw = 0; Lw < KA; ++Lw) {
-          uint64_t Dl = D.at(Lw, J);
-          if (Dl == NoPath)
-            continue;
-          for (unsigned I = 0; I < K; ++I) {
-            uint64_t V;
-            if (!plusPath(S[size_t(A[Lw]) * K + I], Dl, V))
-              return overflowAt(Loc, Def);
-            uint64_t &Slot = NewRows[size_t(J) * K + I];
-            Slot = maxPath(Slot, V);
-          }
-        }
-      for (unsigned J = 0; J < KA; ++J)
-        std::copy(NewRows.begin() + size_t(J) * K,
-                  NewRows.begin() + size_t(J + 1) * K,
-                  S.begin() + size_t(A[J]) * K);
-    }
   }
 
-  for (unsigned M = 0; M < NumDepthMetrics; ++M) {
-    Out->Depth[M] = DelayMatrix(K);
-    for (unsigned J = 0; J < K; ++J)
-      for (unsigned I = 0; I < K; ++I)
-        Out->Depth[M].at(I, J) = State[M][size_t(J) * K + I];
-  }
-  Out->FirstUse = DelayMatrix(K);
-  Out->LastUse = DelayMatrix(K);
-  for (unsigned J = 0; J < K; ++J)
-    for (unsigned I = 0; I < K; ++I) {
-      Out->FirstUse.at(I, J) = FirstUse[size_t(J) * K + I];
-      Out->LastUse.at(I, J) = LastUse[size_t(J) * K + I];
-    }
+  for (unsigned M = 0; M < NumDepthMetrics; ++M)
+    Out->Depth[M] = State[M].delays();
+  Out->FirstUse = State[unsigned(DepthMetric::All)].firstUses();
+  Out->LastUse = State[unsigned(DepthMetric::All)].lastUses();
   for (const auto &[Leaf, N] : Counts)
     Out->LeafCounts.push_back({Leaf, N});
   llvm::sort(Out->LeafCounts);

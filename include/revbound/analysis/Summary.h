@@ -11,6 +11,7 @@
 #define REVBOUND_ANALYSIS_SUMMARY_H
 
 #include "revbound/analysis/LeafPolicy.h"
+#include "revbound/analysis/MaxPlus.h"
 #include "revbound/ir/Circuit.h"
 
 #include "llvm/ADT/ArrayRef.h"
@@ -32,21 +33,9 @@ namespace revbound::analysis {
 enum class DepthMetric : unsigned { All = 0, TwoQubit = 1, T = 2 };
 inline constexpr unsigned NumDepthMetrics = 3;
 
-/// Longest path in layers from input wire i to output wire j of a gate, in
-/// the max-plus semiring; NoPath where j does not depend on i.
-class DelayMatrix {
-public:
-  static constexpr uint64_t NoPath = UINT64_MAX;
-  DelayMatrix() = default;
-  explicit DelayMatrix(unsigned N) : N(N), D(size_t(N) * N, NoPath) {}
-  unsigned size() const { return N; }
-  uint64_t at(unsigned From, unsigned To) const { return D[size_t(From) * N + To]; }
-  uint64_t &at(unsigned From, unsigned To) { return D[size_t(From) * N + To]; }
-
-private:
-  unsigned N = 0;
-  std::vector<uint64_t> D;
-};
+/// Longest path in layers through a gate, input wire i to output wire j.
+using DelayMatrix = MaxPlusMatrix<uint64_t>;
+inline constexpr uint64_t NoPath = MaxPlusTraits<uint64_t>::none();
 
 /// What one call of a gate contributes, expanded down to leaves.
 struct GateSummary {

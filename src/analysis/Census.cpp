@@ -57,15 +57,16 @@ llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
     llvm::Expected<PrimitiveCounts> P = Cache.primitive(O.Gate, O.Loc);
     if (!P)
       return P.takeError();
-    if (!addChecked(Out.PrimitiveU, P->U) || !addChecked(Out.PrimitiveCX, P->CX))
+    if (!addChecked(Out.PrimitiveU, P->U) || !addChecked(Out.PrimitiveCX, P->CX) ||
+        !addChecked(Out.PrimitiveOpaque, P->Opaque))
       return tooMany(O.Loc);
     if (Cache.isLeaf(O.Gate)) {
-      ++Leaves[O.Gate];
-      ++Out.Gates;
-      if (O.NumWires >= 2)
-        ++Out.TwoQubit;
-      if (isTLeaf(C.gate(O.Gate), C.params(O)))
-        ++Out.TCount;
+      // Checked too: expanded calls before this op may have filled a count.
+      bool IsT = isTLeaf(C.gate(O.Gate), C.params(O));
+      if (!addChecked(Leaves[O.Gate], 1) || !addChecked(Out.Gates, 1) ||
+          !addChecked(Out.TwoQubit, O.NumWires >= 2) ||
+          !addChecked(Out.TCount, IsT))
+        return tooMany(O.Loc);
       continue;
     }
     llvm::Expected<const GateSummary *> S =

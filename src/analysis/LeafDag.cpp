@@ -31,32 +31,42 @@ public:
   Builder(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes,
           std::vector<LeafNode> &Nodes)
       : C(C), Cache(Cache), MaxNodes(MaxNodes), Nodes(Nodes),
-        Last(size_t(C.NumQubits) + C.NumClbits, 0) {}
+        Last(size_t(C.NumQubits) + C.NumClbits, 0), Readers(C.NumClbits) {}
 
   std::vector<std::pair<uint32_t, uint32_t>> Edges;
   std::vector<int64_t> Weights;
 
-  /// Adds a vertex on `Wires` that also waits for the vertices `ExtraIn`;
-  /// it becomes the last vertex on its wires unless `KeepLast`.
+  /// Adds a vertex on `N.Wires` that also waits for the vertices `ExtraIn`
+  /// and reads the bits `Reads`. A bit among its wires is written: the
+  /// vertex waits for the bit's last writer and for every reader since.
   bool add(LeafNode N, llvm::ArrayRef<uint32_t> ExtraIn = {},
-           bool KeepLast = false) {
+           llvm::ArrayRef<uint32_t> Reads = {}) {
     if (Nodes.size() >= MaxNodes)
       return false;
     uint32_t V = uint32_t(Nodes.size() + 1);
     int64_t Weight = N.Kind == ir::OpKind::Barrier ? 0 : 1;
     auto edge = [&](uint32_t From) {
+      if (From == 0 || From == V)
+        return;
       Edges.push_back({From, V});
       Weights.push_back(Weight);
     };
-    edge(0);
+    Edges.push_back({0, V});
+    Weights.push_back(Weight);
     for (uint32_t From : ExtraIn)
-      if (From != 0)
-        edge(From);
+      edge(From);
+    for (uint32_t B : Reads) {
+      edge(Last[B]);
+      Readers[B - C.NumQubits].push_back(V);
+    }
     for (uint32_t W : N.Wires) {
-      if (Last[W] != 0 && Last[W] != V)
-        edge(Last[W]);
-      if (!KeepLast)
-        Last[W] = V;
+      edge(Last[W]);
+      if (W >= C.NumQubits) {
+        for (uint32_t R : Readers[W - C.NumQubits])
+          edge(R);
+        Readers[W - C.NumQubits].clear();
+      }
+      Last[W] = V;
     }
     Nodes.push_back(std::move(N));
     return true;
@@ -98,19 +108,19 @@ public:
   }
 
   /// A conditional call of a non-leaf gate: each argument first waits for
-  /// the condition bits, then the body runs as usual, and the bits are free
-  /// again once every argument is done (the semantics of Schedule.h).
+  /// the condition bits, then the body runs as usual, and the bits may be
+  /// measured again once every argument is done (Schedule.h's semantics).
   bool expandConditionalCall(uint32_t Top, const ir::Op &O,
                              llvm::ArrayRef<uint32_t> CondBits) {
-    llvm::SmallVector<uint32_t, 8> CondIn;
-    for (uint32_t B : CondBits)
-      CondIn.push_back(Last[B]);
     llvm::ArrayRef<uint32_t> Args = C.wires(O);
     for (uint32_t A : Args) {
       LeafNode Wait;
       Wait.TopOp = Top;
       Wait.Kind = ir::OpKind::Barrier;
       Wait.Wires.push_back(A);
+      llvm::SmallVector<uint32_t, 8> CondIn;
+      for (uint32_t B : CondBits)
+        CondIn.push_back(Last[B]);
       if (!add(std::move(Wait), CondIn))
         return false;
     }
@@ -122,8 +132,7 @@ public:
     LeafNode Join;
     Join.TopOp = Top;
     Join.Kind = ir::OpKind::Barrier;
-    Join.Wires.assign(CondBits.begin(), CondBits.end());
-    return add(std::move(Join), Done);
+    return add(std::move(Join), Done, CondBits);
   }
 
 private:
@@ -131,7 +140,8 @@ private:
   SummaryCache &Cache;
   uint64_t MaxNodes;
   std::vector<LeafNode> &Nodes;
-  std::vector<uint32_t> Last; // last vertex on each wire, 0 for none
+  std::vector<uint32_t> Last; // last vertex writing each wire, 0 for none
+  std::vector<std::vector<uint32_t>> Readers; // per bit, since its last write
 };
 
 } // namespace
@@ -157,7 +167,7 @@ LeafDag::build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes) {
     } else if (!Leaf) {
       Ok = B.expandConditionalCall(Top, O, CondBits);
     } else {
-      // A leaf, measure, reset or barrier; condition bits are wires it syncs.
+      // A leaf, measure, reset or barrier; it reads its condition bits.
       LeafNode N;
       N.TopOp = Top;
       N.Kind = O.Kind;
@@ -165,8 +175,7 @@ LeafDag::build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes) {
       N.Wires.assign(W.begin(), W.end());
       if (O.Kind == ir::OpKind::Measure)
         N.Wires[1] = C.NumQubits + W[1];
-      N.Wires.append(CondBits.begin(), CondBits.end());
-      Ok = B.add(std::move(N));
+      Ok = B.add(std::move(N), {}, CondBits);
     }
     if (!Ok)
       return std::nullopt;

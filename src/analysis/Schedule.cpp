@@ -17,10 +17,13 @@ class Scheduler {
 public:
   Scheduler(const ir::Circuit &C, SummaryCache &Cache)
       : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
-        FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0), LastOp(NumWires, NoOp),
+        FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
+        LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
         PredOp(C.Wires.size(), NoOp), PredWire(C.Wires.size(), 0) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
+    for (auto &F : Free)
+      F.assign(NumWires, 0);
   }
 
   llvm::Error run();
@@ -30,7 +33,8 @@ private:
   void collectWires(const ir::Op &O);
   llvm::Error applyCall(uint32_t Index, const ir::Op &O,
                         const GateSummary &S);
-  void applyLeaf(uint32_t Index, const ir::Op &O, bool IsT, bool UsesQubits);
+  llvm::Error applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
+                        bool UsesQubits);
   void markUse(uint32_t Wire, uint64_t Start, uint64_t End) {
     if (Wire >= C.NumQubits)
       return;
@@ -39,12 +43,20 @@ private:
     LastUse[Wire] = End;
   }
 
+  bool isBit(uint32_t Wire) const { return Wire >= C.NumQubits; }
+
   const ir::Circuit &C;
   SummaryCache &Cache;
   size_t NumWires;
+  // Per wire and metric: when a qubit is next usable, when a bit's value is
+  // available (its last measurement's end). Reading bits (conditions) does
+  // not order readers among themselves; a measurement into a bit waits until
+  // every earlier reader is done: Free is that time.
   std::vector<uint64_t> Ready[NumDepthMetrics];
+  std::vector<uint64_t> Free[NumDepthMetrics];
   std::vector<uint64_t> FirstUse, LastUse; // per qubit, for the volume
-  std::vector<uint32_t> LastOp;    // op that last advanced each wire
+  std::vector<uint32_t> LastOp;    // op that last advanced each wire (writer)
+  std::vector<uint32_t> LastFree;  // op that last pushed a bit's Free time
   std::vector<uint32_t> PredOp;    // per op wire slot: op before it on a longest path
   std::vector<uint32_t> PredWire;  // per op wire slot: the wire that path came in on
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
@@ -64,44 +76,70 @@ void Scheduler::collectWires(const ir::Op &O) {
   }
 }
 
-// A leaf, measure, reset or barrier: every wire it names (condition bits
-// included) starts together and ends `weight` layers later.
-void Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
-                          bool UsesQubits) {
+static llvm::Error depthOverflow(const ir::Op &O) {
+  return errorAt(O.Loc, "a depth passes 2^64-1 layers; revbound counts "
+                        "exactly in 64 bits and will not wrap");
+}
+
+// A leaf, measure, reset or barrier: it starts when its wires are ready, a
+// written bit is free and its condition bits hold their value, and all its
+// own wires end `weight` layers later.
+llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
+                                 bool UsesQubits) {
   bool IsGate = O.Kind == ir::OpKind::Gate;
   bool IsBarrier = O.Kind == ir::OpKind::Barrier;
   uint64_t Weight[NumDepthMetrics] = {
       IsBarrier ? 0u : 1u, IsGate && O.NumWires >= 2 ? 1u : 0u, IsT ? 1u : 0u};
+  const unsigned N = O.NumWires;
   for (unsigned M = 0; M < NumDepthMetrics; ++M) {
-    std::vector<uint64_t> &R = Ready[M];
-    uint64_t Start = 0;
-    uint32_t Critical = Wires[0];
-    for (uint32_t W : Wires)
-      if (R[W] > Start) {
-        Start = R[W];
-        Critical = W;
+    std::vector<uint64_t> &R = Ready[M], &F = Free[M];
+    bool All = M == unsigned(DepthMetric::All);
+    uint64_t Start = 0, End;
+    uint32_t CritWire = Wires[0], CritOp = NoOp;
+    for (unsigned I = 0; I < Wires.size(); ++I) {
+      uint32_t W = Wires[I];
+      bool Written = I < N && isBit(W);
+      uint64_t T = Written ? F[W] : R[W];
+      if (T > Start) {
+        Start = T;
+        CritWire = W;
+        CritOp = Written ? LastFree[W] : LastOp[W];
       }
-    if (M == unsigned(DepthMetric::All)) {
-      for (unsigned I = 0; I < O.NumWires; ++I) {
-        PredOp[O.FirstWire + I] = Start > 0 ? LastOp[Critical] : NoOp;
-        PredWire[O.FirstWire + I] = Critical;
+    }
+    if (__builtin_add_overflow(Start, Weight[M], &End))
+      return depthOverflow(O);
+    if (All) {
+      for (unsigned I = 0; I < N; ++I) {
+        PredOp[O.FirstWire + I] = CritOp;
+        PredWire[O.FirstWire + I] = CritWire;
       }
       if (UsesQubits)
-        for (unsigned I = 0; I < O.NumWires; ++I)
-          markUse(Wires[I], Start, Start + 1);
+        for (unsigned I = 0; I < N; ++I)
+          markUse(Wires[I], Start, End);
     }
-    for (uint32_t W : Wires)
-      R[W] = Start + Weight[M];
+    for (unsigned I = 0; I < N; ++I) {
+      R[Wires[I]] = End;
+      F[Wires[I]] = End;
+    }
+    for (unsigned I = N; I < Wires.size(); ++I)
+      if (End >= F[Wires[I]]) {
+        F[Wires[I]] = End;
+        if (All)
+          LastFree[Wires[I]] = Index;
+      }
   }
-  for (uint32_t W : Wires)
-    LastOp[W] = Index;
+  for (unsigned I = 0; I < N; ++I) {
+    LastOp[Wires[I]] = Index;
+    LastFree[Wires[I]] = Index;
+  }
+  return llvm::Error::success();
 }
 
 llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
                                  const GateSummary &S) {
   unsigned K = O.NumWires;
   llvm::SmallVector<uint64_t, 8> In(K), Out(K);
-  llvm::SmallVector<uint32_t, 8> InWire(K);
+  llvm::SmallVector<uint32_t, 8> InWire(K), InOp(K);
   for (unsigned M = 0; M < NumDepthMetrics; ++M) {
     std::vector<uint64_t> &R = Ready[M];
     bool All = M == unsigned(DepthMetric::All);
@@ -116,9 +154,11 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
     for (unsigned I = 0; I < K; ++I) {
       In[I] = R[Wires[I]];
       InWire[I] = Wires[I];
+      InOp[I] = LastOp[Wires[I]];
       if (CondReady > In[I]) {
         In[I] = CondReady;
         InWire[I] = CondWire;
+        InOp[I] = LastOp[CondWire];
       }
     }
     if (All)
@@ -144,9 +184,8 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
         if (D == NoPath)
           continue;
         uint64_t V;
-        if (__builtin_add_overflow(In[I], D, &V) || V == NoPath)
-          return errorAt(O.Loc, "a depth passes 2^64-1 layers; revbound "
-                                "counts exactly in 64 bits and will not wrap");
+        if (__builtin_add_overflow(In[I], D, &V))
+          return depthOverflow(O);
         if (!Found || V > Best) {
           Best = V;
           From = I;
@@ -156,17 +195,22 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
       Out[J] = Best;
       Latest = std::max(Latest, Best);
       if (All) {
-        PredOp[O.FirstWire + J] = In[From] > 0 ? LastOp[InWire[From]] : NoOp;
+        PredOp[O.FirstWire + J] = In[From] > 0 ? InOp[From] : NoOp;
         PredWire[O.FirstWire + J] = InWire[From];
       }
     }
     for (unsigned J = 0; J < K; ++J)
       R[Wires[J]] = Out[J];
+    // The condition bits may be measured again once the whole call is done.
     for (unsigned I = K; I < Wires.size(); ++I)
-      R[Wires[I]] = std::max(R[Wires[I]], Latest);
+      if (Latest >= Free[M][Wires[I]]) {
+        Free[M][Wires[I]] = Latest;
+        if (All)
+          LastFree[Wires[I]] = Index;
+      }
   }
-  for (uint32_t W : Wires)
-    LastOp[W] = Index;
+  for (unsigned J = 0; J < K; ++J)
+    LastOp[Wires[J]] = Index;
   return llvm::Error::success();
 }
 
@@ -179,7 +223,8 @@ llvm::Error Scheduler::run() {
     if (O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate)) {
       bool IsT = O.Kind == ir::OpKind::Gate &&
                  isTLeaf(C.gate(O.Gate), C.params(O));
-      applyLeaf(Index, O, IsT, O.Kind != ir::OpKind::Barrier);
+      if (llvm::Error E = applyLeaf(Index, O, IsT, O.Kind != ir::OpKind::Barrier))
+        return E;
       continue;
     }
     llvm::Expected<const GateSummary *> S =
@@ -201,8 +246,9 @@ llvm::Expected<Schedule> Scheduler::finish() {
   for (uint32_t Q = 0; Q < C.NumQubits; ++Q)
     if (FirstUse[Q] != NoPath &&
         !addChecked(Out.Volume, LastUse[Q] - FirstUse[Q]))
-      return errorAt(llvm::SMLoc(), "the spacetime volume passes 2^64-1 "
-                                    "qubit-layers; revbound will not wrap it");
+      return errorAt(C.Ops[LastOp[Q]].Loc,
+                     "the spacetime volume passes 2^64-1 qubit-layers here; "
+                     "revbound counts exactly in 64 bits and will not wrap");
   // Walk back from the wire that finishes last.
   uint32_t Wire = 0;
   for (uint32_t W = 1; W < All.size(); ++W)

@@ -160,8 +160,13 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
       continue;
     }
     CalleeParams.clear();
-    for (const ir::ParamExpr &E : B.Params)
+    for (const ir::ParamExpr &E : B.Params) {
       CalleeParams.push_back(E.evaluate(Params));
+      if (!std::isfinite(CalleeParams.back()))
+        return errorAt(Loc, fmt::format("a parameter of '{}' inside gate '{}' "
+                                        "evaluates to a non-finite value",
+                                        C.gate(B.Callee).Name, Def.Name));
+    }
 
     if (LeafFlags[B.Callee]) {
       bool IsT = isTLeaf(C.gate(B.Callee), CalleeParams);

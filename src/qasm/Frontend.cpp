@@ -34,39 +34,56 @@ llvm::Error withNote(llvm::Error E, llvm::SMLoc NoteLoc, std::string Note,
 }
 
 /// Translates a syntax tree into postfix code; `Scope` names the parameters
-/// in reach (empty at the top level).
-llvm::Error compileExpr(const Expr *E, llvm::ArrayRef<Ident> Scope,
+/// in reach (empty at the top level). Iterative, since a flat sum of many
+/// terms is a left-deep tree as deep as it is long.
+llvm::Error compileExpr(const Expr *Root, llvm::ArrayRef<Ident> Scope,
                         ir::ParamExpr &Out) {
   using Op = ir::ParamExpr::OpCode;
-  switch (E->Kind) {
-  case ExprKind::Number:
-    Out.push({Op::Const, 0, E->Value});
-    return llvm::Error::success();
-  case ExprKind::Pi:
-    Out.push({Op::Const, 0, std::numbers::pi});
-    return llvm::Error::success();
-  case ExprKind::Name:
-    for (unsigned I = 0; I < Scope.size(); ++I)
-      if (Scope[I].Name == E->Name) {
-        Out.push({Op::Param, I, 0});
-        return llvm::Error::success();
-      }
-    if (Scope.empty())
+  // Post-order walk: each entry is a node and whether its operands are done.
+  llvm::SmallVector<std::pair<const Expr *, bool>, 16> Stack;
+  Stack.push_back({Root, false});
+  while (!Stack.empty()) {
+    auto [E, Expanded] = Stack.pop_back_val();
+    if (!Expanded && (E->Lhs || E->Rhs)) {
+      Stack.push_back({E, true});
+      if (E->Rhs)
+        Stack.push_back({E->Rhs, false});
+      if (E->Lhs)
+        Stack.push_back({E->Lhs, false});
+      continue;
+    }
+    switch (E->Kind) {
+    case ExprKind::Number:
+      Out.push({Op::Const, 0, E->Value});
+      break;
+    case ExprKind::Pi:
+      Out.push({Op::Const, 0, std::numbers::pi});
+      break;
+    case ExprKind::Name: {
+      bool Found = false;
+      for (unsigned I = 0; I < Scope.size() && !Found; ++I)
+        if (Scope[I].Name == E->Name) {
+          Out.push({Op::Param, I, 0});
+          Found = true;
+        }
+      if (Found)
+        break;
+      if (Scope.empty())
+        return errorAt(E->Loc,
+                       fmt::format("'{}' is not defined; outside gate bodies "
+                                   "parameters must be constant expressions",
+                                   E->Name.str()),
+                       E->Length);
       return errorAt(E->Loc,
-                     fmt::format("'{}' is not defined; outside gate bodies "
-                                 "parameters must be constant expressions",
+                     fmt::format("'{}' is not a parameter of this gate",
                                  E->Name.str()),
                      E->Length);
-    return errorAt(E->Loc,
-                   fmt::format("'{}' is not a parameter of this gate",
-                               E->Name.str()),
-                   E->Length);
-  case ExprKind::Neg:
-  case ExprKind::Call: {
-    if (llvm::Error Err = compileExpr(E->Lhs, Scope, Out))
-      return Err;
-    Op Code = Op::Neg;
-    if (E->Kind == ExprKind::Call) {
+    }
+    case ExprKind::Neg:
+      Out.push({Op::Neg, 0, 0});
+      break;
+    case ExprKind::Call: {
+      Op Code = Op::Sin;
       switch (E->Func) {
       case MathFunc::Sin: Code = Op::Sin; break;
       case MathFunc::Cos: Code = Op::Cos; break;
@@ -75,27 +92,15 @@ llvm::Error compileExpr(const Expr *E, llvm::ArrayRef<Ident> Scope,
       case MathFunc::Ln: Code = Op::Ln; break;
       case MathFunc::Sqrt: Code = Op::Sqrt; break;
       }
+      Out.push({Code, 0, 0});
+      break;
     }
-    Out.push({Code, 0, 0});
-    return llvm::Error::success();
-  }
-  case ExprKind::Add:
-  case ExprKind::Sub:
-  case ExprKind::Mul:
-  case ExprKind::Div:
-  case ExprKind::Pow: {
-    if (llvm::Error Err = compileExpr(E->Lhs, Scope, Out))
-      return Err;
-    if (llvm::Error Err = compileExpr(E->Rhs, Scope, Out))
-      return Err;
-    Op Code = E->Kind == ExprKind::Add   ? Op::Add
-              : E->Kind == ExprKind::Sub ? Op::Sub
-              : E->Kind == ExprKind::Mul ? Op::Mul
-              : E->Kind == ExprKind::Div ? Op::Div
-                                         : Op::Pow;
-    Out.push({Code, 0, 0});
-    return llvm::Error::success();
-  }
+    case ExprKind::Add: Out.push({Op::Add, 0, 0}); break;
+    case ExprKind::Sub: Out.push({Op::Sub, 0, 0}); break;
+    case ExprKind::Mul: Out.push({Op::Mul, 0, 0}); break;
+    case ExprKind::Div: Out.push({Op::Div, 0, 0}); break;
+    case ExprKind::Pow: Out.push({Op::Pow, 0, 0}); break;
+    }
   }
   return llvm::Error::success();
 }
@@ -346,7 +351,8 @@ llvm::Error Elaborator::compileBody(const GateDecl &D, ir::GateDef &G) {
     G.Body.push_back(std::move(Op));
   }
   G.NestingLevel = Level + 1;
-  if (G.NestingLevel > Limits.MaxNesting)
+  // The library's own depth (cswap is 4 levels) is not the file's doing.
+  if (G.NestingLevel > Limits.MaxNesting && !D.FromStandardLibrary)
     return errorAt(D.Name.Loc,
                    fmt::format("gate '{}' nests {} levels of definitions, over "
                                "the limit of {} (--max-nesting)",

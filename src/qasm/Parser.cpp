@@ -16,6 +16,7 @@
 #include "llvm/Support/MemoryBuffer.h"
 
 #include <charconv>
+#include <cstdlib>
 #include <optional>
 #include <fmt/format.h>
 
@@ -96,6 +97,7 @@ private:
   Token Cur;
   const char *PrevEnd = nullptr; // end of the last token consumed
   bool InLibrary = false;
+  bool LibraryIncluded = false;
   llvm::BumpPtrAllocator Arena;
   unsigned ExprDepth = 0;
   static constexpr unsigned MaxExprDepth = 200;
@@ -254,6 +256,13 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
                    NameTok.length() + 2);
   unsigned Id;
   bool IsLibrary = NameTok.Text == "qelib1.inc";
+  if (IsLibrary && LibraryIncluded) {
+    Warnings.warn(NameTok.Loc, "'qelib1.inc' is included again; the second "
+                               "include is ignored",
+                  NameTok.length() + 2);
+    return llvm::Error::success();
+  }
+  LibraryIncluded |= IsLibrary;
   if (IsLibrary && Opts.StandardLibraryPath.empty()) {
     Id = Files.addBuffer(BuiltinLibraryName, builtinLibraryText());
   } else if (IsLibrary) {
@@ -275,7 +284,8 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
     for (const std::string &Open : IncludeStack)
       if (Open == Canon)
         return errorAt(NameTok.Loc,
-                       fmt::format("include cycle: '{}' includes itself",
+                       fmt::format("include cycle: '{}' is already being "
+                                   "read further up the include chain",
                                    NameTok.Text.str()),
                        NameTok.length() + 2);
     IncludeStack.push_back(Canon);
@@ -655,6 +665,12 @@ llvm::Expected<const Expr *> Parser::parsePrimary() {
   case Tok::Integer: {
     Expr *N = newExpr(ExprKind::Number, Cur);
     auto [Ptr, Ec] = std::from_chars(Cur.Text.begin(), Cur.Text.end(), N->Value);
+    // from_chars reports underflow as out of range too; a tiny number is 0.
+    if (Ec == std::errc::result_out_of_range && Ptr == Cur.Text.end() &&
+        std::strtod(std::string(Cur.Text).c_str(), nullptr) == 0) {
+      N->Value = 0;
+      Ec = std::errc();
+    }
     if (Ec != std::errc() || Ptr != Cur.Text.end())
       return errorAt(Cur.Loc,
                      fmt::format("number '{}' is out of the range of a double",

@@ -9,7 +9,7 @@ namespace revbound::qasm {
 // from its textbook circuit identity (Nielsen & Chuang, "Quantum Computation
 // and Quantum Information", 2000, sections 4.2-4.3, for the controlled
 // rotations and Fredkin; the others as noted); the unitaries are checked in
-// tests/qasm/StandardLibraryTest.cpp.
+// tests/ir/UnitaryTest.cpp and tests/corpus/StandardLibraryTest.cpp.
 static const char LibraryText[] = R"QASM(// revbound built-in standard library
 gate u3(theta,phi,lambda) q { U(theta,phi,lambda) q; }
 gate u2(phi,lambda) q { U(pi/2,phi,lambda) q; }
@@ -116,10 +116,12 @@ gate ryy(theta) a,b
 }
 // Controlled sqrt(X) = controlled-(H S H).
 gate csx a,b { h b; cu1(pi/2) a,b; h b; }
-// Controlled-U with a global phase gamma on the target's U.
+// Controlled-(e^{i gamma} u3(theta,phi,lambda)) where u3 carries the phase
+// e^{i(phi+lambda)/2} relative to OpenQASM's U, as later libraries define
+// cu; cu3 here is controlled-U, so the control takes both phases.
 gate cu(theta,phi,lambda,gamma) c,t
 {
-  p(gamma) c;
+  p(gamma+(phi+lambda)/2) c;
   cu3(theta,phi,lambda) c,t;
 }
 )QASM";

@@ -32,7 +32,8 @@ static Json circuitJson(const CircuitReport &C) {
   J["ops"] = {
       {"as_written", counts(O.AsWritten)},
       {"by_name", counts(O.ByName)},
-      {"primitive", {{"U", O.PrimitiveU}, {"CX", O.PrimitiveCX}}},
+      {"primitive",
+       {{"U", O.PrimitiveU}, {"CX", O.PrimitiveCX}, {"opaque", O.PrimitiveOpaque}}},
       {"gates", O.Gates},
       {"measure", O.Measure},
       {"reset", O.Reset},
@@ -48,6 +49,7 @@ static Json circuitJson(const CircuitReport &C) {
     Json Step;
     Step["gate"] = S.Gate;
     Step["wires"] = S.Wires;
+    Step["file"] = S.At.File;
     Step["line"] = S.At.Line;
     Step["column"] = S.At.Column;
     if (S.Inside.Line != 0)
@@ -75,7 +77,9 @@ std::string writeJson(const Report &R) {
   for (const CircuitReport &C : R.Circuits)
     Circuits.push_back(circuitJson(C));
   Root["circuits"] = std::move(Circuits);
-  return Root.dump(2) + "\n";
+  // File names need not be UTF-8; invalid bytes become U+FFFD rather than
+  // an exception.
+  return Root.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
 }
 
 } // namespace revbound::report

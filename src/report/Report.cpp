@@ -3,6 +3,9 @@
 #include "revbound/analysis/LeafDag.h"
 #include "revbound/analysis/Schedule.h"
 
+#include <algorithm>
+#include <fmt/format.h>
+
 namespace revbound::report {
 
 static SourcePoint pointOf(const SourceFiles &Files, llvm::SMLoc Loc) {
@@ -95,6 +98,16 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   R.Granularity = Opts.Policy.Custom
                       ? "custom"
                       : analysis::granularityName(Opts.Policy.Level);
+  for (const auto &Name : Opts.Policy.NativeNames) {
+    auto It = C.GateByName.find(Name.getKey());
+    if (It == C.GateByName.end() || C.gate(It->second).Origin != ir::GateOrigin::User)
+      R.Warnings.push_back({"warning", {R.File, 0, 0},
+                            fmt::format("--native names '{}', which is not a "
+                                        "gate the file defines",
+                                        Name.getKey().str())});
+  }
+  std::sort(R.Warnings.begin(), R.Warnings.end(),
+            [](const Finding &A, const Finding &B) { return A.Message < B.Message; });
   analysis::SummaryCache Cache(C, Opts.Policy);
   llvm::Expected<analysis::Census> Ops = analysis::takeCensus(C, Cache);
   if (!Ops)

@@ -38,7 +38,10 @@ static void writeCircuit(const CircuitReport &C, std::string &Out) {
                      O.Measure, O.Reset, O.Barrier, O.Conditional);
   Out += fmt::format("  by leaf      {}\n", joinCounts(O.ByName));
   Out += fmt::format("  as written   {}\n", joinCounts(O.AsWritten));
-  Out += fmt::format("  to U and CX  {} U, {} CX\n", O.PrimitiveU, O.PrimitiveCX);
+  Out += fmt::format("  to U and CX  {} U, {} CX{}\n", O.PrimitiveU, O.PrimitiveCX,
+                     O.PrimitiveOpaque
+                         ? fmt::format(" (and {} opaque)", O.PrimitiveOpaque)
+                         : std::string());
   Out += fmt::format("  depth        {} layers ({} two-qubit, {} T)\n",
                      C.DepthAll, C.DepthTwoQubit, C.DepthT);
   Out += fmt::format("  volume       {} qubit-layers\n", C.Volume);

@@ -7,6 +7,7 @@
 #include "llvm/Support/MemoryBuffer.h"
 #include "llvm/Support/Path.h"
 
+#include <cstdio>
 #include <fmt/format.h>
 
 namespace revbound {
@@ -73,16 +74,21 @@ llvm::Expected<unsigned> SourceFiles::readFile(llvm::StringRef Path,
 
 llvm::Expected<unsigned> SourceFiles::loadMain(llvm::StringRef Path) {
   if (Path == "-") {
-    auto BufOrErr = llvm::MemoryBuffer::getSTDIN();
-    if (!BufOrErr)
-      return errorAt(llvm::SMLoc(), fmt::format("cannot read standard input: {}",
-                                                BufOrErr.getError().message()));
-    if ((*BufOrErr)->getBufferSize() > Opts.MaxFileBytes)
-      return errorAt(llvm::SMLoc(),
-                     "standard input is over the file size limit (--max-file-bytes)");
+    // Read in chunks and stop past the limit, so memory stays bounded.
+    std::string Text;
+    char Chunk[1 << 16];
+    while (size_t N = std::fread(Chunk, 1, sizeof(Chunk), stdin)) {
+      Text.append(Chunk, N);
+      if (Text.size() > Opts.MaxFileBytes)
+        return errorAt(llvm::SMLoc(),
+                       fmt::format("standard input is over the limit of {} "
+                                   "bytes (--max-file-bytes)",
+                                   Opts.MaxFileBytes));
+    }
+    if (std::ferror(stdin))
+      return errorAt(llvm::SMLoc(), "cannot read standard input");
     unsigned Id = SM.AddNewSourceBuffer(
-        llvm::MemoryBuffer::getMemBufferCopy((*BufOrErr)->getBuffer(), "<stdin>"),
-        llvm::SMLoc());
+        llvm::MemoryBuffer::getMemBufferCopy(Text, "<stdin>"), llvm::SMLoc());
     BufferPaths.resize(Id);
     Roots.push_back(canonical("."));
     return Id;
@@ -129,7 +135,9 @@ llvm::Expected<unsigned> SourceFiles::loadInclude(llvm::StringRef Name,
   if (!canonicalPath(From).empty())
     Base = path::parent_path(
         SM.getMemoryBuffer(From)->getBufferIdentifier());
-  {
+  if (path::is_absolute(Name)) {
+    Candidates.push_back(Name.str());
+  } else {
     llvm::SmallString<256> C(Base);
     path::append(C, Name);
     Candidates.push_back(std::string(C));

@@ -32,6 +32,7 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
       ->capture_default_str();
   Cmd.add_option("--max-nesting", O.Limits.MaxNesting,
                  "levels of gate definitions calling gates")
+      ->check(CLI::Range(1u, qasm::MaxNestingCap))
       ->capture_default_str();
   Cmd.add_option("--max-ops", O.Limits.MaxOps,
                  "top-level operations after broadcasting")
@@ -91,6 +92,9 @@ int analyzeAll(const InputOptions &O, report::Report &Out) {
       Status = ExitBadInput;
       continue;
     }
+    for (const report::Finding &F : R->Warnings)
+      if (F.At.Line == 0)
+        std::cerr << fmt::format("{}: warning: {}\n", F.At.File, F.Message);
     Out.Circuits.push_back(std::move(*R));
   }
   return Status;

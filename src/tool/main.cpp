@@ -6,6 +6,8 @@
 //===----------------------------------------------------------------------===//
 #include "Commands.h"
 
+#include <algorithm>
+#include <cstring>
 #include <exception>
 #include <iostream>
 
@@ -20,11 +22,21 @@ int main(int argc, char **argv) {
     CLI::App App{"revbound: what physics says OpenQASM 2.0 circuits must cost"};
     App.set_version_flag("--version", "revbound 0.1.0");
     App.require_subcommand(1);
-    std::function<int()> Run;
     std::vector<std::pair<CLI::App *, std::function<int()>>> Runners;
     for (const Command &C : Commands) {
       CLI::App *Sub = App.add_subcommand(C.Name, C.Help);
       Runners.push_back({Sub, C.Setup(*Sub)});
+    }
+    // Name an unknown command instead of CLI11's "a subcommand is required".
+    if (argc > 1 && argv[1][0] != '-' &&
+        std::none_of(std::begin(Commands), std::end(Commands),
+                     [&](const Command &C) { return std::strcmp(C.Name, argv[1]) == 0; })) {
+      std::cerr << "revbound: unknown command '" << argv[1]
+                << "'; expected one of:";
+      for (const Command &C : Commands)
+        std::cerr << " " << C.Name;
+      std::cerr << "\n";
+      return ExitBadInput;
     }
     try {
       App.parse(argc, argv);

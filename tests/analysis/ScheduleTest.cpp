@@ -56,6 +56,27 @@ TEST(Schedule, MeasureResetAndIfTakeLayers) {
   EXPECT_EQ(R->DepthTwoQubit, 0u);
 }
 
+// Conditions read bits: readers run side by side, and a later measurement
+// into the bit waits for all of them.
+TEST(Schedule, ConditionsReadBitsMeasurementsWriteThem) {
+  auto R = analyzeText(std::string(Header) +
+                       "qreg q[3];\ncreg c[1];\nif(c==1) h q;\n");
+  ASSERT_TRUE(R);
+  EXPECT_EQ(R->DepthAll, 1u);
+  R = analyzeText(std::string(Header) +
+                  "qreg q[3];\ncreg c[1];\nh q[0];\nh q[0];\n"
+                  "if(c==1) x q[1];\nmeasure q[0] -> c[0];\nif(c==1) x q[2];\n");
+  ASSERT_TRUE(R);
+  // x q[1] at layer 1; measure after h h: layer 3; x q[2] reads it: 4.
+  EXPECT_EQ(R->DepthAll, 4u);
+  R = analyzeText(std::string(Header) +
+                  "qreg q[2];\ncreg c[1];\nh q[1];\nh q[1];\nh q[1];\n"
+                  "if(c==0) x q[1];\nmeasure q[0] -> c[0];\n");
+  ASSERT_TRUE(R);
+  // The measurement may not overwrite c before the reader at layer 4 ends.
+  EXPECT_EQ(R->DepthAll, 5u);
+}
+
 TEST(Schedule, TDepthCountsOnlyTLayers) {
   auto R = analyzeText(std::string(Header) +
                        "qreg q[2];\nt q[0];\nt q[1];\ncx q[0], q[1];\nt q[1];\n"
@@ -67,27 +88,34 @@ TEST(Schedule, TDepthCountsOnlyTLayers) {
 
 namespace {
 
-/// Reference: expand to leaves by brute force and layer them naively.
+/// Reference: expand to leaves by brute force and layer them naively. Bits
+/// are read by conditions (readers do not wait for each other) and written
+/// by measurements (a write waits for the last write and for every reader
+/// since); docs/metrics.md states this rule.
 struct Reference {
   const ir::Circuit &C;
   analysis::SummaryCache &Cache;
-  std::vector<uint64_t> Ready[3];
+  std::vector<uint64_t> Ready[3], Free[3];
   std::vector<uint64_t> First, Last;
 
   Reference(const ir::Circuit &C, analysis::SummaryCache &Cache)
       : C(C), Cache(Cache), First(C.NumQubits, UINT64_MAX),
         Last(C.NumQubits, 0) {
-    for (auto &R : Ready)
-      R.assign(C.NumQubits + C.NumClbits, 0);
+    for (int M = 0; M < 3; ++M) {
+      Ready[M].assign(C.NumQubits + C.NumClbits, 0);
+      Free[M].assign(C.NumQubits + C.NumClbits, 0);
+    }
   }
 
   void place(const std::vector<uint32_t> &Wires, bool Barrier, bool TwoQ,
-             bool IsT) {
+             bool IsT, const std::vector<uint32_t> &Reads = {}) {
     uint64_t W[3] = {Barrier ? 0u : 1u, TwoQ ? 1u : 0u, IsT ? 1u : 0u};
     for (int M = 0; M < 3; ++M) {
       uint64_t Start = 0;
       for (uint32_t X : Wires)
-        Start = std::max(Start, Ready[M][X]);
+        Start = std::max(Start, X < C.NumQubits ? Ready[M][X] : Free[M][X]);
+      for (uint32_t B : Reads)
+        Start = std::max(Start, Ready[M][B]);
       if (M == 0 && !Barrier)
         for (uint32_t X : Wires)
           if (X < C.NumQubits) {
@@ -95,7 +123,9 @@ struct Reference {
             Last[X] = std::max(Last[X], Start + 1);
           }
       for (uint32_t X : Wires)
-        Ready[M][X] = Start + W[M];
+        Ready[M][X] = Free[M][X] = Start + W[M];
+      for (uint32_t B : Reads)
+        Free[M][B] = std::max(Free[M][B], Start + W[M]);
     }
   }
 
@@ -104,11 +134,12 @@ struct Reference {
   void conditionalCall(ir::GateId G, const std::vector<uint32_t> &Wires,
                        const std::vector<double> &Params,
                        const std::vector<uint32_t> &Cond) {
-    if (Cache.isLeaf(G)) {
-      std::vector<uint32_t> All = Wires;
-      All.insert(All.end(), Cond.begin(), Cond.end());
-      place(All, false, Wires.size() >= 2,
-            analysis::isTLeaf(C.gate(G), Params));
+    if (Cache.isLeaf(G) || Cond.empty()) {
+      if (Cache.isLeaf(G))
+        place(Wires, false, Wires.size() >= 2,
+              analysis::isTLeaf(C.gate(G), Params), Cond);
+      else
+        call(G, Wires, Params);
       return;
     }
     for (int M = 0; M < 3; ++M) {
@@ -124,7 +155,7 @@ struct Reference {
       for (uint32_t X : Wires)
         Done = std::max(Done, Ready[M][X]);
       for (uint32_t B : Cond)
-        Ready[M][B] = std::max(Ready[M][B], Done);
+        Free[M][B] = std::max(Free[M][B], Done);
     }
   }
 
@@ -209,6 +240,11 @@ std::string randomProgram(std::mt19937 &Rng) {
       Text += fmt::format("barrier q[{}], q[{}];\n", Pick(6), Pick(6));
       continue;
     }
+    if (Kind == 3) {
+      Text += fmt::format("if(c=={}) measure q[{}] -> c[{}];\n", Pick(4),
+                          Pick(6), Pick(2));
+      continue;
+    }
     const Def &Callee = Defs[Pick(int(Defs.size()))];
     std::vector<int> Order = {0, 1, 2, 3, 4, 5};
     std::shuffle(Order.begin(), Order.end(), Rng);
@@ -251,9 +287,7 @@ TEST(Schedule, SummariesMatchBruteForceOnRandomNestedCircuits) {
           Cond.push_back(C.NumQubits + R.Offset + B);
       }
       if (O.Kind == ir::OpKind::Measure) {
-        std::vector<uint32_t> MW = {W[0], C.NumQubits + W[1]};
-        MW.insert(MW.end(), Cond.begin(), Cond.end());
-        Ref.place(MW, false, false, false);
+        Ref.place({W[0], C.NumQubits + W[1]}, false, false, false, Cond);
       } else if (O.Kind == ir::OpKind::Barrier) {
         Ref.place(std::vector<uint32_t>(W.begin(), W.end()), true, false, false);
       } else {

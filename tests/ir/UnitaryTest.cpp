@@ -150,6 +150,21 @@ TEST_F(Unitaries, TwoAndThreeQubitGates) {
   EXPECT_TRUE(ir::equalUpToPhase(of("cswap"), fromBigEndian(Fredkin)));
 }
 
+// cu(theta, phi, lambda, gamma) is controlled-(e^{i gamma} u3) with the
+// common u3 matrix [[cos(t/2), -e^{i l} sin(t/2)], [e^{i p} sin(t/2),
+// e^{i(p+l)} cos(t/2)]] (common practice, from memory): the phase on the
+// controlled branch matters, so it is checked through the whole 4x4 matrix.
+TEST_F(Unitaries, ControlledUWithPhase) {
+  double T = 0.9, P = 0.4, L = -1.3, G = 0.7;
+  Matrix U3 = mat(2, {std::cos(T / 2), -std::exp(I * L) * std::sin(T / 2),
+                      std::exp(I * P) * std::sin(T / 2),
+                      std::exp(I * (P + L)) * std::cos(T / 2)});
+  EXPECT_TRUE(ir::equalUpToPhase(of("u3", {T, P, L}), U3));
+  EXPECT_TRUE(ir::equalUpToPhase(of("cu", {T, P, L, G}),
+                                 controlled(std::exp(I * G) * U3)));
+  EXPECT_FALSE(ir::equalUpToPhase(of("cu", {T, P, L, G}), controlled(U3)));
+}
+
 TEST_F(Unitaries, Classification) {
   EXPECT_EQ(ir::classify(of("x")), ir::UnitaryClass::Permutation);
   EXPECT_EQ(ir::classify(of("ccx")), ir::UnitaryClass::Permutation);

@@ -6,6 +6,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "TestSupport.h"
+#include "revbound/analysis/Summary.h"
 
 #include <gtest/gtest.h>
 
@@ -282,4 +283,26 @@ TEST(Diagnostics, UnsatisfiableConditionIsAWarning) {
             "2 bits and cannot equal 4\n"
             "if(c==4) x q[0];\n"
             "      ^\n");
+}
+
+// A non-finite angle inside a body is caught when the call is analysed, at
+// the call site (an elaborated circuit is only checked for constants).
+TEST(Diagnostics, NonFiniteParameterInsideABody) {
+  auto E = elaborate(std::string(Header) + "gate g(x) a { U(1/x,0,0) a; }\n"
+                                           "qreg q[1];\ng(0) q[0];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  revbound::analysis::LeafPolicy Policy;
+  revbound::analysis::SummaryCache Cache(*E.Circuit, Policy);
+  const revbound::ir::Op &O = E.Circuit->Ops[0];
+  llvm::Expected<const revbound::analysis::GateSummary *> S =
+      Cache.get(O.Gate, E.Circuit->params(O), O.Loc);
+  ASSERT_FALSE(bool(S));
+  std::string Text;
+  llvm::handleAllErrors(S.takeError(), [&](const revbound::DiagnosticError &D) {
+    Text = revbound::formatDiagnostic(E.Files->mgr(), D.diagnostic());
+  });
+  EXPECT_EQ(Text, "test.qasm:5:1: error: a parameter of 'U' inside gate 'g' "
+                  "evaluates to a non-finite value\n"
+                  "g(0) q[0];\n"
+                  "^\n");
 }

@@ -93,3 +93,20 @@ TEST(Expression, TopLevelNamesAreErrors) {
             "U(theta,0,0) q[0];\n"
             "  ^~~~~\n");
 }
+
+// A flat sum is a left-deep tree as deep as it is long; it must not recurse
+// per term (found by reading a 120 kB expression).
+TEST(Expression, LongFlatExpressions) {
+  std::string Sum = "1";
+  for (int I = 1; I < 100000; ++I)
+    Sum += "+1";
+  EXPECT_EQ(valuesOf(Sum + ",0,0"), (std::vector<double>{100000, 0, 0}));
+  revbound::test::Elaborated E = elaborate(
+      "OPENQASM 2.0;\ngate g(a) q { U(" + Sum + "*a,0,0) q; }\nqreg q[1];\n"
+      "g(1) q[0];\n");
+  EXPECT_EQ(E.Error, "");
+}
+
+TEST(Expression, UnderflowIsZero) {
+  EXPECT_EQ(valuesOf("1e-400, 0, 0"), (std::vector<double>{0, 0, 0}));
+}

@@ -151,3 +151,29 @@ TEST_F(Includes, StandardLibraryReplacement) {
   EXPECT_NE(run(Root / "lib" / "cx.qasm", {}, Opts).find("unknown gate 'cx'"),
             std::string::npos);
 }
+
+TEST_F(Includes, AbsoluteIncludeWhenEscapeIsAllowed) {
+  write(Root / "outside" / "defs.inc", "gate flip a { U(pi,0,pi) a; }\n");
+  write(Root / "lib" / "main.qasm",
+        "OPENQASM 2.0;\ninclude \"" + (Root / "outside" / "defs.inc").string() +
+            "\";\nqreg q[1];\nflip q[0];\n");
+  EXPECT_NE(run(Root / "lib" / "main.qasm").find("is an absolute path"),
+            std::string::npos);
+  SourceOptions SO;
+  SO.AllowIncludeEscape = true;
+  EXPECT_EQ(run(Root / "lib" / "main.qasm", SO), "");
+  EXPECT_EQ(NumOps, 1u);
+}
+
+TEST_F(Includes, LibraryIncludedTwiceIsAWarning) {
+  test::Elaborated E = test::elaborate(
+      "OPENQASM 2.0;\ninclude \"qelib1.inc\";\ninclude \"qelib1.inc\";\n"
+      "qreg q[1];\nh q[0];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  ASSERT_EQ(E.Warnings.size(), 1u);
+  EXPECT_EQ(E.Warnings[0],
+            "test.qasm:3:9: warning: 'qelib1.inc' is included again; the "
+            "second include is ignored\n"
+            "include \"qelib1.inc\";\n"
+            "        ^~~~~~~~~~~~\n");
+}

@@ -180,3 +180,32 @@ TEST_F(ReportCommand, HugeCountsAreExactIntegers) {
   EXPECT_EQ(R.Exit, 2);
   EXPECT_NE(R.Err.find("passes 2^64-1"), std::string::npos);
 }
+
+TEST_F(ReportCommand, UnknownNativeNameAndCommand) {
+  write("bell.qasm", Bell);
+  Outcome R = invoke("report --native nosuch bell.qasm");
+  EXPECT_EQ(R.Exit, 0);
+  EXPECT_EQ(R.Err, "bell.qasm: warning: --native names 'nosuch', which is not "
+                   "a gate the file defines\n");
+  R = invoke("frob bell.qasm");
+  EXPECT_EQ(R.Exit, 2);
+  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report\n");
+}
+
+TEST_F(ReportCommand, OpaqueGatesInThePrimitiveCounts) {
+  write("op.qasm", "OPENQASM 2.0;\nopaque magic a;\nqreg q[1];\nmagic q[0];\n"
+                   "U(0,0,0) q[0];\n");
+  Outcome R = invoke("report --format json op.qasm");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  nlohmann::json P = nlohmann::json::parse(R.Out)["circuits"][0]["ops"]["primitive"];
+  EXPECT_EQ(P["U"], 1);
+  EXPECT_EQ(P["opaque"], 1);
+}
+
+// File names need not be UTF-8; the JSON stays valid.
+TEST_F(ReportCommand, NonUtf8FileName) {
+  write("bad\xff.qasm", Bell);
+  Outcome R = invoke("report --format json 'bad\xff.qasm'");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  EXPECT_EQ(nlohmann::json::parse(R.Out)["circuits"][0]["file"], "bad\xEF\xBF\xBD.qasm");
+}

@@ -19,6 +19,7 @@ struct Census {
   NamedCounts ByName;      // leaf applications, expanded through definitions
   uint64_t PrimitiveU = 0; // full expansion to the built-ins
   uint64_t PrimitiveCX = 0;
+  uint64_t PrimitiveOpaque = 0; // opaque applications, which cannot expand
   uint64_t Gates = 0;      // unitary leaf applications (opaque ones included)
   uint64_t Measure = 0;
   uint64_t Reset = 0;

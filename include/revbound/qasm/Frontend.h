@@ -22,10 +22,14 @@ namespace revbound::qasm {
 struct FrontendLimits {
   uint32_t MaxQubits = 1u << 20;
   uint32_t MaxClbits = 1u << 20;
-  unsigned MaxNesting = 1000;        // levels of gate definitions calling gates
+  /// Levels of gate definitions calling gates. Analyses recurse once per
+  /// level, so the driver caps it at MaxNestingCap.
+  unsigned MaxNesting = 1000;
   uint64_t MaxOps = 100'000'000;     // top-level operations after broadcasting
   unsigned MaxGateQubits = 256;      // qubit arguments of one gate definition
 };
+
+inline constexpr unsigned MaxNestingCap = 2000;
 
 struct FrontendOptions {
   ParserOptions Parser;

@@ -1,0 +1,120 @@
+#!/usr/bin/env bash
+# End-to-end figures of `revbound report --format json` against the targets: time vs `wc -l`, peak memory per op, nested file time.
+#
+# usage: tests/perf/run_end_to_end.sh [--build DIR] [--ops N] [--levels K]
+#                                     [--runs R] [--keep] [--strict]
+#   --build DIR  build folder holding bin/revbound and bin/revbound_gen_circuits
+#                (default: the build/ folder beside tests/)
+#   --ops N      operations of the flat file (default 1000000)
+#   --levels K   the nested file expands to 2^K leaves (default 61)
+#   --runs R     hyperfine runs per command (default 10); medians are quoted
+#                because the machine is shared and noisy
+#   --keep       keep the generated files and the raw hyperfine exports
+#   --strict     exit 1 when a target is missed (default: report only)
+#
+# Targets: flat report at most 20x the median time of `wc -l` on the same
+# file; peak RSS at most 200 bytes per op; the 2^61-op nested file under 1 s.
+set -euo pipefail
+
+Here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
+Build="$Here/../../build"
+Ops=1000000
+Levels=61
+Runs=10
+Keep=0
+Strict=0
+while [[ $# -gt 0 ]]; do
+  case "$1" in
+    --build) Build="$2"; shift 2 ;;
+    --ops) Ops="$2"; shift 2 ;;
+    --levels) Levels="$2"; shift 2 ;;
+    --runs) Runs="$2"; shift 2 ;;
+    --keep) Keep=1; shift ;;
+    --strict) Strict=1; shift ;;
+    -h|--help) sed -n '2,16p' "$0"; exit 0 ;;
+    *) echo "error: unknown argument '$1'" >&2; exit 2 ;;
+  esac
+done
+
+Revbound="$Build/bin/revbound"
+Gen="$Build/bin/revbound_gen_circuits"
+for Tool in "$Revbound" "$Gen"; do
+  [[ -x "$Tool" ]] || { echo "error: '$Tool' not built (ninja -C $Build)" >&2; exit 2; }
+done
+for Tool in hyperfine /usr/bin/time wc awk; do
+  command -v "$Tool" >/dev/null || { echo "error: '$Tool' is not installed" >&2; exit 2; }
+done
+
+Work="$(mktemp -d "${TMPDIR:-/tmp}/revbound-perf.XXXXXX")"
+if [[ $Keep -eq 0 ]]; then
+  trap 'rm -rf "$Work"' EXIT
+fi
+
+echo "== generating into $Work"
+"$Gen" --ops "$Ops" --levels "$Levels" "$Work"
+mkdir "$Work/tiny"
+"$Gen" --ops 100 --qubits 8 --levels 1 "$Work/tiny" >/dev/null
+Flat="$Work/flat.qasm"
+Nested="$Work/nested.qasm"
+FlatBytes=$(wc -c <"$Flat")
+
+# Every report must succeed before anything is timed.
+for F in "$Flat" "$Nested"; do
+  "$Revbound" report --format json "$F" >"$Work/$(basename "$F" .qasm).json"
+done
+
+# median SECONDS of the command in row ROW (1-based) of a hyperfine CSV export
+median() { awk -F, -v Row="$2" 'NR == Row + 1 { print $4 }' "$1"; }
+
+echo "== timing the flat file ($Ops ops, $FlatBytes bytes), $Runs runs each"
+hyperfine --shell=none --warmup 2 --runs "$Runs" --export-csv "$Work/flat.csv" \
+  --command-name "revbound report" "$Revbound report --format json $Flat" \
+  --command-name "wc -l" "wc -l $Flat"
+ReportSec=$(median "$Work/flat.csv" 1)
+WcSec=$(median "$Work/flat.csv" 2)
+
+echo "== timing the nested file (2^$Levels leaves)"
+hyperfine --shell=none --warmup 2 --runs "$Runs" --export-csv "$Work/nested.csv" \
+  --command-name "revbound report (nested)" "$Revbound report --format json $Nested"
+NestedSec=$(median "$Work/nested.csv" 1)
+
+# peak RSS in KiB of `revbound report` on FILE; the largest of three runs
+peakKib() {
+  local Max=0 Kib
+  for _ in 1 2 3; do
+    Kib=$(/usr/bin/time -v "$Revbound" report --format json "$1" 2>&1 >/dev/null |
+          awk -F: '/Maximum resident set size/ { gsub(/ /, "", $2); print $2 }')
+    if (( Kib > Max )); then Max=$Kib; fi
+  done
+  echo "$Max"
+}
+echo "== peak memory (/usr/bin/time -v)"
+FlatKib=$(peakKib "$Flat")
+NestedKib=$(peakKib "$Nested")
+TinyKib=$(peakKib "$Work/tiny/flat.qasm") # the fixed cost of the process
+
+Status=0
+awk -v R="$ReportSec" -v W="$WcSec" -v N="$NestedSec" -v Ops="$Ops" \
+    -v Bytes="$FlatBytes" -v FK="$FlatKib" -v BK="$TinyKib" -v NK="$NestedKib" -v Strict="$Strict" '
+BEGIN {
+  Ratio = R / W
+  PerOp = FK * 1024 / Ops
+  NetPerOp = (FK - BK) * 1024 / Ops
+  printf "\n== results (medians of hyperfine runs)\n"
+  printf "flat report      %9.1f ms   %7.1f MB/s   %6.2f M ops/s\n",
+         R * 1e3, Bytes / R / 1e6, Ops / R / 1e6
+  printf "wc -l            %9.1f ms\n", W * 1e3
+  printf "ratio            %9.1f x     (target <= 20x)   %s\n", Ratio,
+         Ratio <= 20 ? "PASS" : "FAIL"
+  printf "peak RSS flat    %9.1f MiB  %7.1f bytes/op      (target <= 200)   %s\n",
+         FK / 1024, PerOp, PerOp <= 200 ? "PASS" : "FAIL"
+  printf "peak RSS tiny    %9.1f MiB  (100-op file: the process baseline; flat net of it %.1f bytes/op)\n",
+         BK / 1024, NetPerOp
+  printf "nested report    %9.1f ms   (target < 1000 ms)   %s\n", N * 1e3,
+         N < 1 ? "PASS" : "FAIL"
+  printf "peak RSS nested  %9.1f MiB\n", NK / 1024
+  Missed = (Ratio > 20) + (PerOp > 200) + (N >= 1)
+  exit (Strict && Missed) ? 1 : 0
+}' || Status=$?
+[[ $Keep -eq 1 ]] && echo "files kept in $Work"
+exit $Status

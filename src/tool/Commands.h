@@ -53,6 +53,7 @@ struct Command {
 };
 
 std::function<int()> setupReport(CLI::App &Cmd);
+std::function<int()> setupGates(CLI::App &Cmd);
 
 } // namespace revbound::tool
 

@@ -15,6 +15,7 @@ using namespace revbound::tool;
 
 static const Command Commands[] = {
     {"report", "count, schedule and report circuits", setupReport},
+    {"gates", "list the gate library: arity, parameters, class, angle", setupGates},
 };
 
 int main(int argc, char **argv) {

@@ -62,7 +62,7 @@ llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
       return tooMany(O.Loc);
     if (Cache.isLeaf(O.Gate)) {
       // Checked too: expanded calls before this op may have filled a count.
-      bool IsT = isTLeaf(C.gate(O.Gate), C.params(O));
+      bool IsT = Cache.isT(O.Gate, C.params(O));
       if (!addChecked(Leaves[O.Gate], 1) || !addChecked(Out.Gates, 1) ||
           !addChecked(Out.TwoQubit, O.NumWires >= 2) ||
           !addChecked(Out.TCount, IsT))

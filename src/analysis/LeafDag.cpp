@@ -15,11 +15,15 @@ struct LeafDag::Graph {
   using Type = boost::adjacency_list<boost::vecS, boost::vecS, boost::directedS,
                                      boost::no_property,
                                      boost::property<boost::edge_weight_t, int64_t>>;
+  template <typename EdgeIt, typename WeightIt>
+  Graph(EdgeIt Begin, EdgeIt End, WeightIt Weights, size_t NumVertices)
+      : G(Begin, End, Weights, NumVertices) {}
   Type G;
 };
 
-LeafDag::LeafDag() : G(std::make_unique<Graph>()) {}
+LeafDag::LeafDag() = default;
 LeafDag::LeafDag(LeafDag &&) = default;
+LeafDag &LeafDag::operator=(LeafDag &&) = default;
 LeafDag::~LeafDag() = default;
 
 namespace {
@@ -180,9 +184,10 @@ LeafDag::build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes) {
     if (!Ok)
       return std::nullopt;
   }
-  auto &G = Dag.G->G;
-  G = Graph::Type(B.Edges.begin(), B.Edges.end(), B.Weights.begin(),
-                  Dag.Nodes.size() + 1);
+  // Built in place: adjacency_list has no move assignment in Boost 1.74,
+  // and a copy would double the graph's cost.
+  Dag.G = std::make_unique<Graph>(B.Edges.begin(), B.Edges.end(),
+                                  B.Weights.begin(), Dag.Nodes.size() + 1);
   return std::optional<LeafDag>(std::move(Dag));
 }
 

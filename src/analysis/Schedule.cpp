@@ -222,7 +222,7 @@ llvm::Error Scheduler::run() {
     collectWires(O);
     if (O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate)) {
       bool IsT = O.Kind == ir::OpKind::Gate &&
-                 isTLeaf(C.gate(O.Gate), C.params(O));
+                 Cache.isT(O.Gate, C.params(O));
       if (llvm::Error E = applyLeaf(Index, O, IsT, O.Kind != ir::OpKind::Barrier))
         return E;
       continue;

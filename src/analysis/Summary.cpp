@@ -55,8 +55,15 @@ SummaryCache::SummaryCache(const ir::Circuit &Circ, const LeafPolicy &P)
     : C(Circ), Policy(P), LeafFlags(Circ.Gates.size()),
       ParamSensitive(Circ.Gates.size(), -1), ById(Circ.Gates.size()),
       Primitive(Circ.Gates.size()) {
-  for (size_t I = 0; I < Circ.Gates.size(); ++I)
-    LeafFlags[I] = Policy.isLeaf(Circ.Gates[I]);
+  TKinds.resize(Circ.Gates.size(), TKind::Never);
+  for (size_t I = 0; I < Circ.Gates.size(); ++I) {
+    const ir::GateDef &G = Circ.Gates[I];
+    LeafFlags[I] = Policy.isLeaf(G);
+    if (G.numQubits() == 1 && isAngleGate(G))
+      TKinds[I] = TKind::ByAngle;
+    else if (isTLeaf(G, {}))
+      TKinds[I] = TKind::Always;
+  }
 }
 
 SummaryCache::~SummaryCache() = default;
@@ -169,7 +176,7 @@ SummaryCache::compute(ir::GateId G, llvm::ArrayRef<double> Params,
     }
 
     if (LeafFlags[B.Callee]) {
-      bool IsT = isTLeaf(C.gate(B.Callee), CalleeParams);
+      bool IsT = isT(B.Callee, CalleeParams);
       bool Multi = A.size() >= 2;
       bool Ok = addChecked(Counts[B.Callee], 1) && addChecked(Out->Gates, 1) &&
                 addChecked(Out->MultiQubit, Multi) &&

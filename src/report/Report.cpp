@@ -44,22 +44,30 @@ static std::string opName(const ir::Circuit &C, ir::OpKind K, ir::GateId G) {
 
 static llvm::Error fillPath(const ir::Circuit &C, const SourceFiles &Files,
                             analysis::SummaryCache &Cache,
+                            const analysis::Census &Ops,
                             const analysis::Schedule &S,
                             const AnalysisOptions &Opts, CriticalPath &Out) {
   Out.Length = S.Depth[unsigned(analysis::DepthMetric::All)];
-  llvm::Expected<std::optional<analysis::LeafDag>> Dag =
-      analysis::LeafDag::build(C, Cache, Opts.MaxDagNodes);
-  if (!Dag)
-    return Dag.takeError();
-  if (*Dag) {
+  // The census is a lower bound on the leaf graph's size: skip building a
+  // graph that is certain to pass the limit.
+  uint64_t AtLeast = Ops.Gates + Ops.Measure + Ops.Reset + Ops.Barrier;
+  std::optional<analysis::LeafDag> Graph;
+  if (AtLeast <= Opts.MaxDagNodes) {
+    llvm::Expected<std::optional<analysis::LeafDag>> Dag =
+        analysis::LeafDag::build(C, Cache, Opts.MaxDagNodes);
+    if (!Dag)
+      return Dag.takeError();
+    Graph = std::move(*Dag);
+  }
+  if (Graph) {
     Out.Method = "dag";
     std::vector<uint32_t> Nodes;
-    (*Dag)->longestPath(Nodes);
+    Graph->longestPath(Nodes);
     Out.Steps = Nodes.size();
     for (uint32_t N : Nodes) {
       if (Out.Listed.size() >= Opts.MaxPathSteps)
         break;
-      const analysis::LeafNode &L = (*Dag)->node(N);
+      const analysis::LeafNode &L = Graph->node(N);
       PathStep P;
       P.Gate = opName(C, L.Kind, L.Gate);
       P.Wires = wireNames(C, L.Wires);
@@ -120,7 +128,7 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   R.DepthTwoQubit = S->Depth[unsigned(analysis::DepthMetric::TwoQubit)];
   R.DepthT = S->Depth[unsigned(analysis::DepthMetric::T)];
   R.Volume = S->Volume;
-  if (llvm::Error E = fillPath(C, Files, Cache, *S, Opts, R.Path))
+  if (llvm::Error E = fillPath(C, Files, Cache, R.Ops, *S, Opts, R.Path))
     return std::move(E);
   return R;
 }

@@ -189,7 +189,7 @@ TEST_F(ReportCommand, UnknownNativeNameAndCommand) {
                    "a gate the file defines\n");
   R = invoke("frob bell.qasm");
   EXPECT_EQ(R.Exit, 2);
-  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report\n");
+  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report gates\n");
 }
 
 TEST_F(ReportCommand, OpaqueGatesInThePrimitiveCounts) {

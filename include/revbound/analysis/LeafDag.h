@@ -37,6 +37,7 @@ public:
   build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes);
 
   LeafDag(LeafDag &&);
+  LeafDag &operator=(LeafDag &&);
   ~LeafDag();
 
   size_t size() const { return Nodes.size(); }

@@ -74,6 +74,12 @@ public:
 
   bool isLeaf(ir::GateId G) const { return LeafFlags[G]; }
 
+  /// isTLeaf(C.gate(G), Params), with the name tests done once per gate.
+  bool isT(ir::GateId G, llvm::ArrayRef<double> Params) const {
+    return TKinds[G] == TKind::Always ||
+           (TKinds[G] == TKind::ByAngle && isTLeaf(C.gate(G), Params));
+  }
+
   /// The summary of non-leaf gate `G` called with `Params`. The pointer stays
   /// valid until the next call. A count past 2^64 - 1 is an error at `Loc`.
   llvm::Expected<const GateSummary *> get(ir::GateId G,
@@ -92,6 +98,8 @@ private:
   const ir::Circuit &C;
   const LeafPolicy &Policy;
   std::vector<bool> LeafFlags;
+  enum class TKind : uint8_t { Never, Always, ByAngle };
+  std::vector<TKind> TKinds;
   std::vector<int8_t> ParamSensitive; // -1 unknown, 0 no, 1 yes
   std::vector<std::unique_ptr<GateSummary>> ById;
   std::unordered_map<std::string, std::unique_ptr<GateSummary>> ByParams;

@@ -36,7 +36,7 @@ static llvm::Expected<NamedCounts> byName(const ir::Circuit &C,
 llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
   Census Out;
   std::vector<uint64_t> Written(C.Gates.size(), 0), Leaves(C.Gates.size(), 0);
-  // Primitive counts per gate are memoised; summing them per op is one add.
+  uint64_t LeafT = 0; // T applications among top-level leaves
   for (const ir::Op &O : C.Ops) {
     if (O.Cond != ir::NoCondition)
       ++Out.Conditional;
@@ -54,19 +54,11 @@ llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
       break;
     }
     ++Written[O.Gate];
-    llvm::Expected<PrimitiveCounts> P = Cache.primitive(O.Gate, O.Loc);
-    if (!P)
-      return P.takeError();
-    if (!addChecked(Out.PrimitiveU, P->U) || !addChecked(Out.PrimitiveCX, P->CX) ||
-        !addChecked(Out.PrimitiveOpaque, P->Opaque))
-      return tooMany(O.Loc);
     if (Cache.isLeaf(O.Gate)) {
-      // Checked too: expanded calls before this op may have filled a count.
-      bool IsT = Cache.isT(O.Gate, C.params(O));
-      if (!addChecked(Leaves[O.Gate], 1) || !addChecked(Out.Gates, 1) ||
-          !addChecked(Out.TwoQubit, O.NumWires >= 2) ||
-          !addChecked(Out.TCount, IsT))
-        return tooMany(O.Loc);
+      // Leaf applications are added per gate after the loop; only the
+      // T test depends on the op's own angles.
+      if (Cache.isT(O.Gate, C.params(O)))
+        ++LeafT;
       continue;
     }
     llvm::Expected<const GateSummary *> S =
@@ -81,6 +73,28 @@ llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
     if (!Ok)
       return tooMany(O.Loc);
   }
+  // Per gate: its applications times its expansion (one multiply per gate,
+  // not one lookup per op). The location of an overflow is the gate's.
+  bool Ok = addChecked(Out.TCount, LeafT);
+  for (ir::GateId G = 0; G < Written.size() && Ok; ++G) {
+    uint64_t N = Written[G];
+    if (N == 0)
+      continue;
+    llvm::Expected<PrimitiveCounts> P = Cache.primitive(G, C.gate(G).Loc);
+    if (!P)
+      return P.takeError();
+    uint64_t U, CX, Opaque;
+    Ok = !__builtin_mul_overflow(N, P->U, &U) &&
+         !__builtin_mul_overflow(N, P->CX, &CX) &&
+         !__builtin_mul_overflow(N, P->Opaque, &Opaque) &&
+         addChecked(Out.PrimitiveU, U) && addChecked(Out.PrimitiveCX, CX) &&
+         addChecked(Out.PrimitiveOpaque, Opaque);
+    if (Ok && Cache.isLeaf(G))
+      Ok = addChecked(Leaves[G], N) && addChecked(Out.Gates, N) &&
+           (C.gate(G).numQubits() < 2 || addChecked(Out.TwoQubit, N));
+  }
+  if (!Ok)
+    return tooMany(C.Ops.empty() ? llvm::SMLoc() : C.Ops.back().Loc);
   llvm::Expected<NamedCounts> AsWritten = byName(C, Written);
   if (!AsWritten)
     return AsWritten.takeError();

@@ -35,6 +35,7 @@ private:
                         const GateSummary &S);
   llvm::Error applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
                         bool UsesQubits);
+  llvm::Error applyPlainGate(uint32_t Index, const ir::Op &O, bool IsT);
   void markUse(uint32_t Wire, uint64_t Start, uint64_t End) {
     if (Wire >= C.NumQubits)
       return;
@@ -135,6 +136,43 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
   return llvm::Error::success();
 }
 
+// The common case, an unconditional leaf gate on qubits only: applyLeaf's
+// rule in one pass over the wires for all three metrics.
+llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
+                                      bool IsT) {
+  llvm::ArrayRef<uint32_t> W = C.wires(O);
+  std::vector<uint64_t> &All = Ready[unsigned(DepthMetric::All)];
+  std::vector<uint64_t> &Two = Ready[unsigned(DepthMetric::TwoQubit)];
+  std::vector<uint64_t> &T = Ready[unsigned(DepthMetric::T)];
+  uint64_t StartAll = 0, StartTwo = 0, StartT = 0;
+  uint32_t Critical = W[0];
+  for (uint32_t X : W) {
+    if (All[X] > StartAll) {
+      StartAll = All[X];
+      Critical = X;
+    }
+    StartTwo = std::max(StartTwo, Two[X]);
+    StartT = std::max(StartT, T[X]);
+  }
+  uint64_t EndAll, EndTwo, EndT;
+  if (__builtin_add_overflow(StartAll, 1, &EndAll) ||
+      __builtin_add_overflow(StartTwo, uint64_t(W.size() >= 2), &EndTwo) ||
+      __builtin_add_overflow(StartT, uint64_t(IsT), &EndT))
+    return depthOverflow(O);
+  uint32_t Pred = StartAll > 0 ? LastOp[Critical] : NoOp;
+  for (unsigned I = 0; I < W.size(); ++I) {
+    uint32_t X = W[I];
+    PredOp[O.FirstWire + I] = Pred;
+    PredWire[O.FirstWire + I] = Critical;
+    markUse(X, StartAll, EndAll);
+    All[X] = EndAll;
+    Two[X] = EndTwo;
+    T[X] = EndT;
+    LastOp[X] = Index;
+  }
+  return llvm::Error::success();
+}
+
 llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
                                  const GateSummary &S) {
   unsigned K = O.NumWires;
@@ -219,6 +257,12 @@ llvm::Error Scheduler::run() {
     const ir::Op &O = C.Ops[Index];
     if (O.NumWires == 0)
       continue;
+    if (O.Kind == ir::OpKind::Gate && O.Cond == ir::NoCondition &&
+        Cache.isLeaf(O.Gate)) {
+      if (llvm::Error E = applyPlainGate(Index, O, Cache.isT(O.Gate, C.params(O))))
+        return E;
+      continue;
+    }
     collectWires(O);
     if (O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate)) {
       bool IsT = O.Kind == ir::OpKind::Gate &&

@@ -9,13 +9,11 @@
 namespace revbound::report {
 
 static SourcePoint pointOf(const SourceFiles &Files, llvm::SMLoc Loc) {
+  SourceFiles::Point L = Files.locate(Loc);
   SourcePoint P;
-  if (!Loc.isValid())
-    return P;
-  ResolvedLocation R = resolve(Files.mgr(), Loc);
-  P.File = R.File;
-  P.Line = R.Line;
-  P.Column = R.Column;
+  P.File = L.File.str();
+  P.Line = L.Line;
+  P.Column = L.Column;
   return P;
 }
 

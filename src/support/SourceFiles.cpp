@@ -8,6 +8,7 @@
 #include "llvm/Support/Path.h"
 
 #include <cstdio>
+#include <cstring>
 #include <fmt/format.h>
 
 namespace revbound {
@@ -163,6 +164,47 @@ llvm::Expected<unsigned> SourceFiles::loadInclude(llvm::StringRef Name,
   return errorAt(IncludeLoc,
                  fmt::format("cannot find include file '{}'", Name.str()),
                  Length);
+}
+
+} // namespace revbound
+
+namespace revbound {
+
+SourceFiles::Point SourceFiles::locate(llvm::SMLoc Loc) const {
+  Point P;
+  if (!Loc.isValid())
+    return P;
+  unsigned Id = SM.FindBufferContainingLoc(Loc);
+  if (Id == 0)
+    return P;
+  const llvm::MemoryBuffer *Buf = SM.getMemoryBuffer(Id);
+  P.File = Buf->getBufferIdentifier();
+  if (Cursors.size() < Id)
+    Cursors.resize(Id);
+  const char *Target = Loc.getPointer();
+  // Continue from the nearest cursor at or before the target; when there is
+  // none, start one from the buffer's beginning in the least useful slot.
+  Cursor *Best = nullptr;
+  for (Cursor &C : Cursors[Id - 1])
+    if (C.Pos && C.Pos <= Target && (!Best || C.Pos > Best->Pos))
+      Best = &C;
+  if (!Best) {
+    Best = &Cursors[Id - 1][0];
+    for (Cursor &C : Cursors[Id - 1])
+      if (!C.Pos || C.Pos > Best->Pos)
+        Best = &C;
+    Best->Pos = Buf->getBufferStart();
+    Best->Line = 1;
+  }
+  Cursor &Cur = *Best;
+  // Advance line by line with memchr, which is as fast as counting gets.
+  while (const void *NL = std::memchr(Cur.Pos, '\n', size_t(Target - Cur.Pos))) {
+    Cur.Pos = static_cast<const char *>(NL) + 1;
+    ++Cur.Line;
+  }
+  P.Line = Cur.Line;
+  P.Column = unsigned(Target - Cur.Pos) + 1;
+  return P;
 }
 
 } // namespace revbound

@@ -13,6 +13,7 @@
 #include "llvm/Support/Error.h"
 #include "llvm/Support/SourceMgr.h"
 
+#include <array>
 #include <cstdint>
 #include <string>
 #include <vector>
@@ -55,6 +56,16 @@ public:
   /// detect include cycles.
   llvm::StringRef canonicalPath(unsigned BufferId) const;
 
+  /// Line and column (1-based) of `Loc` and its buffer's name, for reports
+  /// that resolve many locations in source order: a cursor per buffer makes
+  /// that one pass over the text instead of a line table of the whole file.
+  struct Point {
+    llvm::StringRef File;
+    unsigned Line = 0;
+    unsigned Column = 0;
+  };
+  Point locate(llvm::SMLoc Loc) const;
+
   llvm::SourceMgr &mgr() { return SM; }
   const llvm::SourceMgr &mgr() const { return SM; }
 
@@ -67,6 +78,14 @@ private:
   llvm::SourceMgr SM;
   std::vector<std::string> Roots;          // canonical folders
   std::vector<std::string> BufferPaths;    // by buffer id - 1
+  struct Cursor {
+    const char *Pos = nullptr; // a line start
+    unsigned Line = 1;
+  };
+  // A few cursors per buffer, since reports alternate between top-level
+  // statements and the gate bodies they call.
+  static constexpr unsigned CursorsPerBuffer = 4;
+  mutable std::vector<std::array<Cursor, CursorsPerBuffer>> Cursors;
 };
 
 } // namespace revbound

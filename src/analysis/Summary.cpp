@@ -56,14 +56,31 @@ SummaryCache::SummaryCache(const ir::Circuit &Circ, const LeafPolicy &P)
       ParamSensitive(Circ.Gates.size(), -1), ById(Circ.Gates.size()),
       Primitive(Circ.Gates.size()) {
   TKinds.resize(Circ.Gates.size(), TKind::Never);
+  Unitaries = std::make_unique<ir::UnitaryCache>(Circ, 1);
   for (size_t I = 0; I < Circ.Gates.size(); ++I) {
     const ir::GateDef &G = Circ.Gates[I];
     LeafFlags[I] = Policy.isLeaf(G);
-    if (G.numQubits() == 1 && isAngleGate(G))
+    if (!LeafFlags[I] || G.numQubits() != 1)
+      continue;
+    if (isAngleGate(G))
       TKinds[I] = TKind::ByAngle;
-    else if (isTLeaf(G, {}))
-      TKinds[I] = TKind::Always;
+    else if (G.numParams() > 0)
+      TKinds[I] = TKind::ByUnitary;
+    else
+      TKinds[I] = unitaryIsT(ir::GateId(I), {}) ? TKind::Always : TKind::Never;
   }
+}
+
+bool SummaryCache::unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params) {
+  const ir::Matrix *U = Unitaries->get(G, Params);
+  if (!U)
+    return false; // opaque: nothing is known
+  static const ir::Matrix T = [] {
+    ir::Matrix M = ir::Matrix::Identity(2, 2);
+    M(1, 1) = std::polar(1.0, std::numbers::pi / 4);
+    return M;
+  }();
+  return ir::equalUpToPhase(*U, T) || ir::equalUpToPhase(*U, T.adjoint());
 }
 
 SummaryCache::~SummaryCache() = default;

@@ -10,12 +10,25 @@ namespace revbound::physics {
 
 using std::numbers::pi;
 
-// The objective is only defined where (1 - eps) / (2 p (1 - p)) <= 2, i.e.
-// for p in [(1 - sqrt eps)/2, (1 + sqrt eps)/2]; it is smooth there and
-// the minimum is found by a grid search refined by golden sections.
+// The objective f(p) = p arccos(g(p)), g = 1 - (1 - eps) / (2 p (1 - p)),
+// is defined for p in [(1 - sqrt eps)/2, (1 + sqrt eps)/2], where g runs
+// from -1 up to 2 eps - 1 and back; f' goes from minus to plus infinity
+// there, and the minimum is at its one sign change. The root of f' is found
+// by bisection, then the Illinois variant of regula falsi, to 1e-14 in p;
+// f is flat at its minimum, so the value is exact to rounding.
 static double objective(double P, double Epsilon) {
   double Arg = 1 - (1 - Epsilon) / (2 * P * (1 - P));
   return P * std::acos(std::clamp(Arg, -1.0, 1.0));
+}
+
+static double slope(double P, double Epsilon) {
+  double Q = P * (1 - P);
+  double G = std::clamp(1 - (1 - Epsilon) / (2 * Q), -1.0, 1.0);
+  double DG = (1 - Epsilon) * (1 - 2 * P) / (2 * Q * Q);
+  double Root = std::sqrt(std::max(0.0, 1 - G * G));
+  if (Root == 0)
+    return DG > 0 ? -INFINITY : INFINITY;
+  return std::acos(G) - P * DG / Root;
 }
 
 double mlFactor(double Epsilon) {
@@ -25,38 +38,35 @@ double mlFactor(double Epsilon) {
   if (Epsilon == 1)
     return 0;
   double Root = std::sqrt(Epsilon);
-  double Lo = (1 - Root) / 2, Hi = (1 + Root) / 2;
-  const int Grid = 512;
-  int Best = 0;
-  double BestValue = objective(Lo, Epsilon);
-  for (int I = 1; I <= Grid; ++I) {
-    double V = objective(Lo + (Hi - Lo) * I / Grid, Epsilon);
-    if (V < BestValue) {
-      BestValue = V;
-      Best = I;
-    }
+  double A = (1 - Root) / 2, B = (1 + Root) / 2;
+  for (int I = 0; I < 12; ++I) {
+    double M = (A + B) / 2;
+    (slope(M, Epsilon) < 0 ? A : B) = M;
   }
-  double A = Lo + (Hi - Lo) * std::max(0, Best - 1) / Grid;
-  double B = Lo + (Hi - Lo) * std::min(Grid, Best + 1) / Grid;
-  const double Ratio = (std::sqrt(5.0) - 1) / 2;
-  double X1 = B - Ratio * (B - A), X2 = A + Ratio * (B - A);
-  double F1 = objective(X1, Epsilon), F2 = objective(X2, Epsilon);
-  for (int I = 0; I < 200 && B - A > 1e-15; ++I) {
-    if (F1 < F2) {
-      B = X2;
-      X2 = X1;
-      F2 = F1;
-      X1 = B - Ratio * (B - A);
-      F1 = objective(X1, Epsilon);
+  double FA = slope(A, Epsilon), FB = slope(B, Epsilon);
+  int Side = 0;
+  for (int I = 0; I < 100 && B - A > 1e-14; ++I) {
+    double M = std::isfinite(FA) && std::isfinite(FB) && FB != FA
+                   ? B - FB * (B - A) / (FB - FA)
+                   : (A + B) / 2;
+    if (!(M > A && M < B))
+      M = (A + B) / 2;
+    double FM = slope(M, Epsilon);
+    if (FM < 0) {
+      A = M;
+      FA = FM;
+      if (Side == -1)
+        FB /= 2;
+      Side = -1;
     } else {
-      A = X1;
-      X1 = X2;
-      F1 = F2;
-      X2 = A + Ratio * (B - A);
-      F2 = objective(X2, Epsilon);
+      B = M;
+      FB = FM;
+      if (Side == 1)
+        FA /= 2;
+      Side = 1;
     }
   }
-  double Min = std::min({BestValue, F1, F2});
+  double Min = std::min(objective(A, Epsilon), objective(B, Epsilon));
   return std::clamp(2 / pi * Min, 0.0, 1.0);
 }
 

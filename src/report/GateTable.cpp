@@ -48,9 +48,8 @@ static bool isNameChar(char C, bool First) {
 // and line breaks out means the value cannot smuggle statements into the
 // program it is evaluated in.
 static bool isExprChar(char C) {
-  return isNameChar(C, false) || C == '.' || C == '+' || C == '-' ||
-         C == '*' || C == '/' || C == '^' || C == '(' || C == ')' || C == ' ' ||
-         C == '\t';
+  return isNameChar(C, false) || C == '.' || C == '+' || C == '-' || C == '*' ||
+         C == '/' || C == '^' || C == '(' || C == ')' || C == ' ' || C == '\t';
 }
 
 /// Evaluates `Value` as the first argument of a top-level U, so that the
@@ -69,9 +68,8 @@ static llvm::Expected<double> evaluateConstant(llvm::StringRef Value,
       qasm::buildCircuit(Scratch, Id, qasm::FrontendOptions{}, Ignored);
   if (!C) {
     Diagnostic D;
-    llvm::handleAllErrors(C.takeError(), [&](const DiagnosticError &E) {
-      D = E.diagnostic();
-    });
+    llvm::handleAllErrors(
+        C.takeError(), [&](const DiagnosticError &E) { D = E.diagnostic(); });
     ptrdiff_t Off = D.Loc.isValid() ? D.Loc.getPointer() - Start : -1;
     if (Off < 0 || Off > ptrdiff_t(Value.size()))
       Off = ptrdiff_t(Value.size()); // past the value: its end is to blame
@@ -92,14 +90,13 @@ llvm::Expected<ParamAssignment> parseParamAssignment(SourceFiles &Files,
   auto At = [&](size_t Off) { return llvm::SMLoc::getFromPointer(Base + Off); };
   size_t Eq = Text.find('=');
   if (Eq == llvm::StringRef::npos || Eq == 0)
-    return errorAt(At(0),
-                   "expected NAME=VALUE,... (for example rz=pi/4)",
+    return errorAt(At(0), "expected NAME=VALUE,... (for example rz=pi/4)",
                    unsigned(Text.size()));
   for (size_t I = 0; I < Eq; ++I)
     if (!isNameChar(Text[I], I == 0))
-      return errorAt(At(0),
-                     fmt::format("'{}' is not a gate name", Text.take_front(Eq)),
-                     unsigned(Eq));
+      return errorAt(
+          At(0), fmt::format("'{}' is not a gate name", Text.take_front(Eq)),
+          unsigned(Eq));
   ParamAssignment A;
   A.Gate = Text.take_front(Eq).str();
   A.Loc = At(0);
@@ -155,10 +152,12 @@ public:
 
 private:
   static constexpr ir::GateId NoGate = ~ir::GateId(0);
-  /// Seconds of work on one core, so that no row can hang the command.
-  static constexpr double MaxBuildCost = 0x1p33;
+  /// About ten seconds of the unitary builder on one core (it manages some
+  /// 10^8 multiply-adds a second on 10 qubits), so that no row
+  /// can hang the command.
+  static constexpr double MaxBuildCost = 0x1p30;
 
-  std::string noUnitaryReason(ir::GateId G);
+  std::string noUnitaryReason(ir::GateId G, unsigned Builds);
   double buildCost(ir::GateId G);
   bool expansionFinite(ir::GateId G, llvm::ArrayRef<double> Params);
   const ir::Matrix *unitary(ir::GateId G, llvm::ArrayRef<double> Params);
@@ -200,7 +199,7 @@ double RowBuilder::buildCost(ir::GateId G) {
   return Cost[G] = Total;
 }
 
-std::string RowBuilder::noUnitaryReason(ir::GateId G) {
+std::string RowBuilder::noUnitaryReason(ir::GateId G, unsigned Builds) {
   const ir::GateDef &D = C.gate(G);
   if (D.Origin == ir::GateOrigin::Opaque)
     return "opaque gate: no definition to build a unitary from";
@@ -209,7 +208,7 @@ std::string RowBuilder::noUnitaryReason(ir::GateId G) {
                        D.numQubits(), MaxTableQubits);
   if (FirstOpaque[G] != NoGate)
     return fmt::format("calls opaque gate '{}'", C.gate(FirstOpaque[G]).Name);
-  if (double Work = buildCost(G); Work > MaxBuildCost)
+  if (double Work = Builds * buildCost(G); Work > MaxBuildCost)
     return fmt::format("building its unitary would take about {:.1e} "
                        "multiply-adds, over the limit of {:.1e}",
                        Work, MaxBuildCost);
@@ -220,7 +219,8 @@ std::string RowBuilder::noUnitaryReason(ir::GateId G) {
 // ordering; so every value the expansion computes is checked first. Each
 // (gate, values) pair is visited once, as in the cache itself.
 bool RowBuilder::expansionFinite(ir::GateId G, llvm::ArrayRef<double> Params) {
-  auto Key = std::make_pair(G, std::vector<double>(Params.begin(), Params.end()));
+  auto Key =
+      std::make_pair(G, std::vector<double>(Params.begin(), Params.end()));
   if (!FiniteSeen.insert(Key).second)
     return true;
   std::vector<double> Sub;
@@ -253,7 +253,8 @@ void RowBuilder::evaluateAt(GateRow &R, ir::GateId G,
   const ir::Matrix *U = unitary(G, Params);
   if (!U) {
     R.Eval = Evaluation::None;
-    R.Note = "a parameter expression in the body is not finite for these values";
+    R.Note =
+        "a parameter expression in the body is not finite for these values";
     return;
   }
   R.Class = ir::classify(*U);
@@ -324,7 +325,9 @@ RowBuilder::row(ir::GateId G, llvm::ArrayRef<ParamAssignment> Assignments) {
   R.PrimitiveCX = P->CX;
   R.PrimitiveOpaque = P->Opaque;
 
-  if (std::string Why = noUnitaryReason(G); !Why.empty()) {
+  // Without values a parametrised gate is built once per generic sample.
+  unsigned Builds = D.numParams() > 0 && R.Values.empty() ? GenericSamples : 1;
+  if (std::string Why = noUnitaryReason(G, Builds); !Why.empty()) {
     R.Eval = Evaluation::None;
     R.Note = std::move(Why);
     return R;
@@ -379,8 +382,9 @@ rowsOf(const ir::Circuit &C, const SourceFiles &Files,
 }
 
 /// Every assignment must name a row with as many parameters, once.
-static llvm::Error checkAssignments(llvm::ArrayRef<GateRow> Rows,
-                                    llvm::ArrayRef<ParamAssignment> Assignments) {
+static llvm::Error
+checkAssignments(llvm::ArrayRef<GateRow> Rows,
+                 llvm::ArrayRef<ParamAssignment> Assignments) {
   for (size_t I = 0; I < Assignments.size(); ++I) {
     const ParamAssignment &A = Assignments[I];
     for (size_t J = 0; J < I; ++J)
@@ -396,12 +400,14 @@ static llvm::Error checkAssignments(llvm::ArrayRef<GateRow> Rows,
         Fits |= R.Params.size() == A.Values.size();
       }
     if (!Named)
-      return errorAt(A.Loc, fmt::format("no gate named '{}'", A.Gate), A.Length);
+      return errorAt(A.Loc, fmt::format("no gate named '{}'", A.Gate),
+                     A.Length);
     if (Fits)
       continue;
     size_t N = Named->Params.size();
     if (N == 0)
-      return errorAt(A.Loc, fmt::format("gate '{}' takes no parameters", A.Gate),
+      return errorAt(A.Loc,
+                     fmt::format("gate '{}' takes no parameters", A.Gate),
                      A.Length);
     return errorAt(A.Loc,
                    fmt::format("gate '{}' takes {} parameter{}, got {}", A.Gate,
@@ -419,7 +425,7 @@ tabulateGates(const ir::Circuit &C, const SourceFiles &Files,
   if (!Rows)
     return Rows.takeError();
   if (llvm::Error E = checkAssignments(*Rows, Assignments))
-    return std::move(E);
+    return E;
   return Rows;
 }
 
@@ -457,7 +463,7 @@ buildGateTable(const ir::Circuit &Library, const ir::Circuit *File,
   T.Rows = std::move(*Lib);
   std::move(Own->begin(), Own->end(), std::back_inserter(T.Rows));
   if (llvm::Error E = checkAssignments(T.Rows, Assignments))
-    return std::move(E);
+    return E;
   return T;
 }
 

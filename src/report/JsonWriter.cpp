@@ -1,6 +1,8 @@
 //===- JsonWriter.cpp - The report as JSON (docs/json.md) ----------------===//
 #include "revbound/report/Writers.h"
 
+#include "revbound/support/Constants.h"
+
 #include <nlohmann/json.hpp>
 
 namespace revbound::report {
@@ -60,6 +62,29 @@ static Json circuitJson(const CircuitReport &C) {
                         {"length", C.Path.Length},
                         {"steps", C.Path.Steps},
                         {"listed", std::move(Steps)}};
+  const analysis::SpeedBounds &B = C.Speed.Bounds;
+  const analysis::EnergyOptions &E = C.Speed.Energy;
+  auto orNull = [](const std::optional<double> &V) {
+    return V ? Json(*V) : Json(nullptr);
+  };
+  J["speed"] = {
+      {"granularity", C.Granularity},
+      {"action_Js", B.ActionJs},
+      {"action_h", B.ActionJs / si::PlanckJouleSeconds},
+      {"path_action_Js", B.PathActionJs},
+      {"steps", B.Steps},
+      {"orthogonal_ops", B.OrthogonalSteps},
+      {"unknown_ops", B.UnknownSteps},
+      {"conditional_skipped", B.ConditionalSkipped},
+      {"energy_J", orNull(E.EnergyJ)},
+      {"energy_per_qubit_J", orNull(E.EnergyPerQubitJ)},
+      {"energy_spread_J", orNull(E.SpreadJ)},
+      {"time_s", {{"pooled", orNull(B.PooledTimeS)},
+                  {"per_qubit", orNull(B.PerQubitTimeS)}}},
+      {"target_time_s", orNull(E.TargetTimeS)},
+      {"least_energy_J", {{"pooled", orNull(B.PooledEnergyForTargetJ)},
+                          {"per_qubit", orNull(B.PerQubitEnergyForTargetJ)}}},
+  };
   Json Warnings = Json::array();
   for (const Finding &F : C.Warnings) {
     Json W = point(F.At);

@@ -128,6 +128,24 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   R.Volume = S->Volume;
   if (llvm::Error E = fillPath(C, Files, Cache, R.Ops, *S, Opts, R.Path))
     return std::move(E);
+  physics::GateCostModel Costs(C, Opts.GivenAngles, Opts.MaxMatrixQubits);
+  llvm::Expected<analysis::SpeedBounds> Speed =
+      analysis::boundSpeed(C, Cache, Costs, Opts.Energy);
+  if (!Speed)
+    return Speed.takeError();
+  R.Speed.Energy = Opts.Energy;
+  R.Speed.Bounds = std::move(*Speed);
+  if (!R.Speed.Bounds.UnknownGates.empty()) {
+    std::string Names;
+    for (const std::string &N : R.Speed.Bounds.UnknownGates)
+      Names += (Names.empty() ? "" : ", ") + N;
+    R.Warnings.push_back(
+        {"warning", {R.File, 0, 0},
+         fmt::format("no gate angle is known for {}; {} step{} count as "
+                     "taking no time (give one with --gate-angle NAME=RADIANS)",
+                     Names, R.Speed.Bounds.UnknownSteps,
+                     R.Speed.Bounds.UnknownSteps == 1 ? "" : "s")});
+  }
   return R;
 }
 

@@ -25,6 +25,33 @@ static std::string stepText(const PathStep &S) {
   return fmt::format("{} {} ({})", S.Gate, Wires, Where);
 }
 
+static std::string seconds(double S) { return fmt::format("{:.4g} s", S); }
+
+static void writeSpeed(const CircuitReport &C, std::string &Out) {
+  const analysis::SpeedBounds &B = C.Speed.Bounds;
+  const analysis::EnergyOptions &E = C.Speed.Energy;
+  Out += fmt::format("  action       {:.4g} J s over {} steps, {} of them able to "
+                     "reach an orthogonal state\n",
+                     B.ActionJs, B.Steps, B.OrthogonalSteps);
+  if (B.PooledTimeS)
+    Out += fmt::format("  pooled       time >= {} with {:.4g} J for the whole "
+                       "machine{}\n",
+                       seconds(*B.PooledTimeS), *E.EnergyJ,
+                       E.SpreadJ ? " (and the given spread)" : "");
+  if (B.PerQubitTimeS)
+    Out += fmt::format("  per qubit    time >= {} with {:.4g} J per qubit, on the "
+                       "longest path\n",
+                       seconds(*B.PerQubitTimeS), *E.EnergyPerQubitJ);
+  if (E.TargetTimeS)
+    Out += fmt::format("  to finish in {}: energy >= {:.4g} J pooled, {:.4g} J "
+                       "per qubit\n",
+                       seconds(*E.TargetTimeS), *B.PooledEnergyForTargetJ,
+                       *B.PerQubitEnergyForTargetJ);
+  if (!B.PooledTimeS && !B.PerQubitTimeS && !E.TargetTimeS)
+    Out += "               time >= action / energy; give --energy or "
+           "--energy-per-qubit\n";
+}
+
 static void writeCircuit(const CircuitReport &C, std::string &Out) {
   const analysis::Census &O = C.Ops;
   Out += fmt::format("== {}\n", C.File);
@@ -58,6 +85,7 @@ static void writeCircuit(const CircuitReport &C, std::string &Out) {
       Out += fmt::format("               ... {} more (see --format json)\n",
                          C.Path.Steps - 8);
   }
+  writeSpeed(C, Out);
   if (!C.Warnings.empty())
     Out += fmt::format("  warnings     {}\n", C.Warnings.size());
 }

@@ -90,7 +90,7 @@ llvm::Expected<double> parseQuantity(llvm::StringRef Text, Dimension D,
   llvm::StringRef Unit = llvm::StringRef(Ptr, size_t(T.end() - Ptr)).trim();
   std::optional<double> Factor = unitFactor(Unit, D);
   if (!Factor)
-    return fail(fmt::format("'{}' is not a {} unit; use {}", Unit.str(),
+    return fail(fmt::format("'{}' is not a unit of {}; use {}", Unit.str(),
                             dimensionName(D), acceptedUnits(D)));
   double SI = Value * *Factor;
   if (!std::isfinite(SI) || SI < 0 || (SI == 0 && !AllowZero))

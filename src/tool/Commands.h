@@ -29,12 +29,17 @@ struct InputOptions {
   qasm::FrontendLimits Limits;
   unsigned MaxIncludeDepth = 16;
   uint64_t MaxDagNodes = 200'000;
+  // Physical quantities as written ("1eV", "20 mK"); parsed in
+  // analysisOptions so that a bad unit is a usage error.
+  std::string Energy, EnergyPerQubit, EnergySpread, TargetTime;
+  std::vector<std::string> GateAngles; // NAME=EXPR
 };
 
 void addInputOptions(CLI::App &Cmd, InputOptions &O);
 SourceOptions sourceOptions(const InputOptions &O);
 qasm::FrontendOptions frontendOptions(const InputOptions &O);
-report::AnalysisOptions analysisOptions(const InputOptions &O);
+/// The analysis options; fails with a message on a bad quantity or angle.
+llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O);
 
 /// Analyses every file; prints diagnostics to stderr. Returns ExitOk, or
 /// ExitBadInput when any file failed (after trying them all).

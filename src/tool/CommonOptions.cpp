@@ -2,6 +2,7 @@
 #include "Commands.h"
 
 #include "revbound/support/Diagnostics.h"
+#include "revbound/support/Units.h"
 
 #include "llvm/Support/FileSystem.h"
 #include "llvm/Support/Path.h"
@@ -42,6 +43,19 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
       ->capture_default_str();
   Cmd.add_option("--max-file-bytes", O.MaxFileBytes, "size limit of every file read")
       ->capture_default_str();
+  Cmd.add_option("--energy", O.Energy,
+                 "energy above the ground state shared by the machine (J, eV, "
+                 "meV, ...): the pooled model");
+  Cmd.add_option("--energy-per-qubit", O.EnergyPerQubit,
+                 "energy each qubit holds: the per-qubit (longest path) model");
+  Cmd.add_option("--energy-spread", O.EnergySpread,
+                 "energy spread, for the Mandelstam-Tamm bound (per qubit "
+                 "with --energy-per-qubit)");
+  Cmd.add_option("--target-time", O.TargetTime,
+                 "a run time (s, ms, us, ns, ...): report the least energy for it");
+  Cmd.add_option("--gate-angle", O.GateAngles,
+                 "NAME=RADIANS: the gate angle of a leaf revbound cannot compute "
+                 "(opaque, or over 10 qubits); RADIANS may use pi, e.g. pi/2");
   Cmd.add_option("--max-dag-nodes", O.MaxDagNodes,
                  "largest leaf graph built for the critical path")
       ->capture_default_str();
@@ -64,8 +78,68 @@ qasm::FrontendOptions frontendOptions(const InputOptions &O) {
   return F;
 }
 
-report::AnalysisOptions analysisOptions(const InputOptions &O) {
+static llvm::Expected<std::optional<double>>
+optionalQuantity(const std::string &Text, Dimension D, const char *Option) {
+  if (Text.empty())
+    return std::optional<double>();
+  llvm::Expected<double> V = parseQuantity(Text, D);
+  if (!V)
+    return llvm::createStringError(llvm::inconvertibleErrorCode(), "%s: %s",
+                                   Option, llvm::toString(V.takeError()).c_str());
+  return std::optional<double>(*V);
+}
+
+/// NAME=EXPR with EXPR a constant OpenQASM expression, read by our parser.
+static llvm::Error addGateAngle(const std::string &Spec,
+                                llvm::StringMap<double> &Out) {
+  size_t Eq = Spec.find('=');
+  auto fail = [&](const std::string &Why) {
+    return llvm::createStringError(llvm::inconvertibleErrorCode(),
+                                   "--gate-angle '%s': %s", Spec.c_str(),
+                                   Why.c_str());
+  };
+  if (Eq == std::string::npos || Eq == 0)
+    return fail("expected NAME=RADIANS");
+  SourceFiles Files;
+  unsigned Id = Files.addBuffer("<--gate-angle>",
+                                "OPENQASM 2.0; qreg q[1]; U(" + Spec.substr(Eq + 1) +
+                                    ",0,0) q[0];");
+  DiagnosticSink Ignored;
+  llvm::Expected<ir::Circuit> C = qasm::buildCircuit(Files, Id, {}, Ignored);
+  if (!C) {
+    llvm::consumeError(C.takeError());
+    return fail("the angle is not a constant expression");
+  }
+  if (C->Params.size() != 3)
+    return fail("the angle is not a single expression");
+  Out[Spec.substr(0, Eq)] = C->Params[0];
+  return llvm::Error::success();
+}
+
+llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O) {
   report::AnalysisOptions A;
+  struct {
+    const std::string &Text;
+    Dimension D;
+    const char *Option;
+    std::optional<double> &Into;
+  } Quantities[] = {
+      {O.Energy, Dimension::Energy, "--energy", A.Energy.EnergyJ},
+      {O.EnergyPerQubit, Dimension::Energy, "--energy-per-qubit",
+       A.Energy.EnergyPerQubitJ},
+      {O.EnergySpread, Dimension::Energy, "--energy-spread", A.Energy.SpreadJ},
+      {O.TargetTime, Dimension::Time, "--target-time", A.Energy.TargetTimeS},
+  };
+  for (auto &Q : Quantities) {
+    llvm::Expected<std::optional<double>> V =
+        optionalQuantity(Q.Text, Q.D, Q.Option);
+    if (!V)
+      return V.takeError();
+    Q.Into = *V;
+  }
+  for (const std::string &Spec : O.GateAngles)
+    if (llvm::Error E = addGateAngle(Spec, A.GivenAngles))
+      return std::move(E);
   A.Policy.Level = O.Granularity == "primitive" ? analysis::Granularity::Primitive
                                                 : analysis::Granularity::Native;
   for (const std::string &N : O.Native)
@@ -76,7 +150,13 @@ report::AnalysisOptions analysisOptions(const InputOptions &O) {
 
 int analyzeAll(const InputOptions &O, report::Report &Out) {
   qasm::FrontendOptions Front = frontendOptions(O);
-  report::AnalysisOptions Analysis = analysisOptions(O);
+  llvm::Expected<report::AnalysisOptions> AnalysisOrErr = analysisOptions(O);
+  if (!AnalysisOrErr) {
+    std::cerr << "revbound: error: " << llvm::toString(AnalysisOrErr.takeError())
+              << "\n";
+    return ExitBadInput;
+  }
+  const report::AnalysisOptions &Analysis = *AnalysisOrErr;
   int Status = ExitOk;
   for (const std::string &File : O.Files) {
     SourceFiles Files(sourceOptions(O));

@@ -92,9 +92,15 @@ TEST_F(ReportCommand, JsonContract) {
   EXPECT_EQ(C["depth"]["all"], 3);
   EXPECT_EQ(C["depth"]["two_qubit"], 1);
   EXPECT_EQ(C["critical_path"]["length"], 3);
+  // Two orthogonal steps (h, cx: L = pi/2) of action pi hbar / 2 = h / 4
+  // each (Margolus & Levitin, Physica D 120, 188 (1998)).
+  EXPECT_NEAR(C["speed"]["action_Js"].get<double>(), 2 * 6.62607015e-34 / 4, 1e-46);
+  EXPECT_EQ(C["speed"]["orthogonal_ops"], 2);
+  EXPECT_TRUE(C["speed"]["energy_J"].is_null());
+  EXPECT_TRUE(C["speed"]["time_s"]["pooled"].is_null());
   // Later issues fill these; until then they are absent, never faked.
   EXPECT_FALSE(C.contains("erasures"));
-  EXPECT_FALSE(C.contains("speed"));
+  EXPECT_FALSE(C.contains("landauer"));
 }
 
 TEST_F(ReportCommand, DeterministicAndStdin) {
@@ -208,4 +214,22 @@ TEST_F(ReportCommand, NonUtf8FileName) {
   Outcome R = invoke("report --format json 'bad\xff.qasm'");
   ASSERT_EQ(R.Exit, 0) << R.Err;
   EXPECT_EQ(nlohmann::json::parse(R.Out)["circuits"][0]["file"], "bad\xEF\xBF\xBD.qasm");
+}
+
+TEST_F(ReportCommand, EnergiesAndBadUnits) {
+  write("bell.qasm", Bell);
+  Outcome R = invoke("report --format json --energy 1J --energy-per-qubit 1J bell.qasm");
+  ASSERT_EQ(R.Exit, 0) << R.Err;
+  nlohmann::json S = nlohmann::json::parse(R.Out)["circuits"][0]["speed"];
+  // Pooled: 2 x h/4 at 1 J; per qubit: h (1 qubit) then cx (2 qubits).
+  EXPECT_NEAR(S["time_s"]["pooled"].get<double>(), 2 * 6.62607015e-34 / 4, 1e-46);
+  EXPECT_NEAR(S["time_s"]["per_qubit"].get<double>(),
+              6.62607015e-34 / 4 + 6.62607015e-34 / 8, 1e-46);
+  R = invoke("report --energy 3K bell.qasm");
+  EXPECT_EQ(R.Exit, 2);
+  EXPECT_EQ(R.Err, "revbound: error: --energy: 'K' is not a unit of energy; use "
+                   "J or eV with an SI prefix (e.g. 1eV, 3 meV, 2e-20 J)\n");
+  R = invoke("report --gate-angle magic bell.qasm");
+  EXPECT_EQ(R.Exit, 2);
+  EXPECT_EQ(R.Err, "revbound: error: --gate-angle 'magic': expected NAME=RADIANS\n");
 }

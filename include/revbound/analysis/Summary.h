@@ -13,6 +13,7 @@
 #include "revbound/analysis/LeafPolicy.h"
 #include "revbound/analysis/MaxPlus.h"
 #include "revbound/ir/Circuit.h"
+#include "revbound/ir/Unitary.h"
 
 #include "llvm/ADT/ArrayRef.h"
 #include "llvm/ADT/SmallVector.h"
@@ -74,10 +75,21 @@ public:
 
   bool isLeaf(ir::GateId G) const { return LeafFlags[G]; }
 
-  /// isTLeaf(C.gate(G), Params), with the name tests done once per gate.
-  bool isT(ir::GateId G, llvm::ArrayRef<double> Params) const {
-    return TKinds[G] == TKind::Always ||
-           (TKinds[G] == TKind::ByAngle && isTLeaf(C.gate(G), Params));
+  /// True when leaf `G` with `Params` is T or T-dagger up to global phase:
+  /// by the angle rule for the library's angle gates (exact for them, and
+  /// fast), by comparing unitaries for every other one-qubit leaf.
+  bool isT(ir::GateId G, llvm::ArrayRef<double> Params) {
+    switch (TKinds[G]) {
+    case TKind::Never:
+      return false;
+    case TKind::Always:
+      return true;
+    case TKind::ByAngle:
+      return isTLeaf(C.gate(G), Params);
+    case TKind::ByUnitary:
+      return unitaryIsT(G, Params);
+    }
+    return false;
   }
 
   /// The summary of non-leaf gate `G` called with `Params`. The pointer stays
@@ -98,8 +110,10 @@ private:
   const ir::Circuit &C;
   const LeafPolicy &Policy;
   std::vector<bool> LeafFlags;
-  enum class TKind : uint8_t { Never, Always, ByAngle };
+  enum class TKind : uint8_t { Never, Always, ByAngle, ByUnitary };
   std::vector<TKind> TKinds;
+  bool unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params);
+  std::unique_ptr<ir::UnitaryCache> Unitaries;
   std::vector<int8_t> ParamSensitive; // -1 unknown, 0 no, 1 yes
   std::vector<std::unique_ptr<GateSummary>> ById;
   std::unordered_map<std::string, std::unique_ptr<GateSummary>> ByParams;

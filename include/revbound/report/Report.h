@@ -9,6 +9,7 @@
 
 #include "revbound/analysis/Census.h"
 #include "revbound/analysis/LeafPolicy.h"
+#include "revbound/analysis/SpeedBounds.h"
 #include "revbound/qasm/Frontend.h"
 #include "revbound/support/SourceFiles.h"
 
@@ -47,6 +48,12 @@ struct Finding {
   std::string Message;
 };
 
+/// DESIGN.md's `speed`: the energy-free action and, with energies, times.
+struct SpeedReport {
+  analysis::EnergyOptions Energy; // as given
+  analysis::SpeedBounds Bounds;
+};
+
 struct CircuitReport {
   std::string File;
   uint32_t Qubits = 0;
@@ -56,6 +63,7 @@ struct CircuitReport {
   uint64_t DepthAll = 0, DepthTwoQubit = 0, DepthT = 0;
   uint64_t Volume = 0;
   CriticalPath Path;
+  SpeedReport Speed;
   std::vector<Finding> Warnings;
 };
 
@@ -67,6 +75,9 @@ struct AnalysisOptions {
   analysis::LeafPolicy Policy;
   uint64_t MaxDagNodes = 200'000; // leaf graph size for the exact path listing
   unsigned MaxPathSteps = 100;    // critical-path steps listed
+  analysis::EnergyOptions Energy;
+  llvm::StringMap<double> GivenAngles; // --gate-angle NAME=RADIANS
+  unsigned MaxMatrixQubits = 10;       // widest leaf given a unitary
 };
 
 /// Reads, elaborates and analyses one file ("-" for standard input) whose

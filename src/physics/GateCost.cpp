@@ -1,0 +1,98 @@
+//===- GateCost.cpp - What one leaf application costs in time -------------===//
+#include "revbound/physics/GateCost.h"
+#include "revbound/physics/GateAngle.h"
+#include "revbound/physics/SpeedLimit.h"
+
+#include <Eigen/Dense>
+
+#include <cmath>
+#include <cstring>
+#include <numbers>
+
+namespace revbound::physics {
+
+GateCostModel::GateCostModel(const ir::Circuit &C,
+                             llvm::StringMap<double> GivenAngles,
+                             unsigned MaxMatrixQubits)
+    : C(C), GivenAngles(std::move(GivenAngles)),
+      MaxMatrixQubits(MaxMatrixQubits), Unitaries(C, MaxMatrixQubits) {}
+
+/// The 2x2 unitary of a one-qubit gate, by fixed-size products (no heap):
+/// one-qubit leaves are most of a flat file and often differ in angle.
+static std::optional<Eigen::Matrix2cd> oneQubit(const ir::Circuit &C,
+                                                ir::GateId G,
+                                                llvm::ArrayRef<double> P) {
+  const ir::GateDef &D = C.gate(G);
+  if (G == ir::Circuit::UGate)
+    return Eigen::Matrix2cd(ir::builtinU(P[0], P[1], P[2]));
+  if (!D.hasBody() || D.numQubits() != 1)
+    return std::nullopt;
+  Eigen::Matrix2cd M = Eigen::Matrix2cd::Identity();
+  llvm::SmallVector<double, 4> Sub;
+  for (const ir::BodyOp &B : D.Body) {
+    if (B.IsBarrier)
+      continue;
+    Sub.clear();
+    for (const ir::ParamExpr &E : B.Params)
+      Sub.push_back(E.evaluate(P));
+    std::optional<Eigen::Matrix2cd> Step = oneQubit(C, B.Callee, Sub);
+    if (!Step)
+      return std::nullopt;
+    M = *Step * M;
+  }
+  return M;
+}
+
+std::optional<double> GateCostModel::angleOf(ir::GateId G,
+                                             llvm::ArrayRef<double> Params) {
+  const ir::GateDef &D = C.gate(G);
+  auto Given = GivenAngles.find(D.Name);
+  if (Given != GivenAngles.end())
+    return std::clamp(Given->second, 0.0, std::numbers::pi / 2);
+  if (D.numQubits() == 1) {
+    // Two eigenvalues always fit an arc of at most pi, so L = arc/2 =
+    // arccos(|tr U| / 2) (GateAngle.h's rule for two eigenvalues).
+    std::optional<Eigen::Matrix2cd> M = oneQubit(C, G, Params);
+    if (!M)
+      return std::nullopt;
+    return std::acos(std::min(1.0, std::abs(M->trace()) / 2));
+  }
+  const ir::Matrix *U = Unitaries.get(G, Params);
+  if (!U)
+    return std::nullopt;
+  return gateAngle(*U);
+}
+
+LeafCost GateCostModel::costOfAngle(double Angle) {
+  LeafCost Cost;
+  Cost.Known = true;
+  Cost.AngleRad = Angle;
+  Cost.Orthogonal = reachesOrthogonal(Angle);
+  uint64_t Bits;
+  std::memcpy(&Bits, &Angle, sizeof(Bits));
+  if (ActionByAngle.size() > (1u << 20)) // a cache: bound its memory
+    ActionByAngle.clear();
+  auto [It, New] = ActionByAngle.try_emplace(Bits, 0.0);
+  if (New)
+    It->second = mlAction(Angle);
+  Cost.ActionJs = It->second;
+  return Cost;
+}
+
+const LeafCost &GateCostModel::cost(ir::GateId G, llvm::ArrayRef<double> Params) {
+  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
+  std::memcpy(Key.data(), &G, sizeof(G));
+  if (!Params.empty())
+    std::memcpy(Key.data() + sizeof(G), Params.data(),
+                Params.size() * sizeof(double));
+  auto It = ByCall.find(Key);
+  if (It != ByCall.end())
+    return It->second;
+  if (ByCall.size() > (1u << 18)) // a cache: bound its memory
+    ByCall.clear();
+  std::optional<double> Angle = angleOf(G, Params);
+  LeafCost Cost = Angle ? costOfAngle(*Angle) : LeafCost();
+  return ByCall.emplace(std::move(Key), Cost).first->second;
+}
+
+} // namespace revbound::physics

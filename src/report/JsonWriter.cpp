@@ -5,6 +5,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include <cmath>
+
 namespace revbound::report {
 
 using Json = nlohmann::ordered_json;
@@ -85,6 +87,24 @@ static Json circuitJson(const CircuitReport &C) {
       {"least_energy_J", {{"pooled", orNull(B.PooledEnergyForTargetJ)},
                           {"per_qubit", orNull(B.PerQubitEnergyForTargetJ)}}},
   };
+  if (C.Speed.Device) {
+    const analysis::DeviceComparison &D = *C.Speed.Device;
+    Json Kinds = Json::array();
+    for (const analysis::GateKindTiming &K : D.Kinds)
+      Kinds.push_back({{"gate", K.Name},
+                       {"count", K.Count},
+                       {"duration_s", K.DurationS},
+                       {"action_Js", K.MaxActionJs},
+                       {"least_energy_J", std::isfinite(K.LeastEnergyJ)
+                                              ? Json(K.LeastEnergyJ)
+                                              : Json(nullptr)},
+                       {"limit_s", orNull(K.LimitS)},
+                       {"slower_by", orNull(K.SlowerBy)}});
+    J["speed"]["device"] = {{"schedule_s", D.ScheduleS},
+                            {"bound_s", orNull(D.BoundS)},
+                            {"bound_over_schedule", orNull(D.Ratio)},
+                            {"gates", std::move(Kinds)}};
+  }
   Json Warnings = Json::array();
   for (const Finding &F : C.Warnings) {
     Json W = point(F.At);

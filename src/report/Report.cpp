@@ -135,6 +135,13 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
     return Speed.takeError();
   R.Speed.Energy = Opts.Energy;
   R.Speed.Bounds = std::move(*Speed);
+  if (Opts.Durations) {
+    llvm::Expected<analysis::DeviceComparison> Device = analysis::compareWithDevice(
+        C, Cache, Costs, *Opts.Durations, Opts.Energy, R.Speed.Bounds);
+    if (!Device)
+      return Device.takeError();
+    R.Speed.Device = std::move(*Device);
+  }
   if (!R.Speed.Bounds.UnknownGates.empty()) {
     std::string Names;
     for (const std::string &N : R.Speed.Bounds.UnknownGates)

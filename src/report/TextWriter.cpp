@@ -47,6 +47,29 @@ static void writeSpeed(const CircuitReport &C, std::string &Out) {
                        "per qubit\n",
                        seconds(*E.TargetTimeS), *B.PooledEnergyForTargetJ,
                        *B.PerQubitEnergyForTargetJ);
+  if (C.Speed.Device) {
+    const analysis::DeviceComparison &D = *C.Speed.Device;
+    Out += fmt::format("  device       schedule {} with the given durations", seconds(D.ScheduleS));
+    if (D.Ratio)
+      Out += fmt::format("; the bound is {:.3g} of it", *D.Ratio);
+    Out += "\n";
+    unsigned Shown = 0;
+    for (const analysis::GateKindTiming &K : D.Kinds) {
+      if (++Shown > 3)
+        break;
+      if (K.DurationS == 0) {
+        Out += fmt::format("               {} ({}x) takes 0 s on the device: no "
+                           "physical evolution to bound\n",
+                           K.Name, K.Count);
+        continue;
+      }
+      Out += fmt::format("               {} ({}x) {}: needs >= {:.3g} J per step{}\n",
+                         K.Name, K.Count, seconds(K.DurationS), K.LeastEnergyJ,
+                         K.SlowerBy ? fmt::format(", {:.3g}x slower than the "
+                                                  "limit", *K.SlowerBy)
+                                    : std::string());
+    }
+  }
   if (!B.PooledTimeS && !B.PerQubitTimeS && !E.TargetTimeS)
     Out += "               time >= action / energy; give --energy or "
            "--energy-per-qubit\n";

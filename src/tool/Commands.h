@@ -33,6 +33,7 @@ struct InputOptions {
   // analysisOptions so that a bad unit is a usage error.
   std::string Energy, EnergyPerQubit, EnergySpread, TargetTime;
   std::vector<std::string> GateAngles; // NAME=EXPR
+  std::string DurationsFile;
 };
 
 void addInputOptions(CLI::App &Cmd, InputOptions &O);

@@ -56,6 +56,9 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
   Cmd.add_option("--gate-angle", O.GateAngles,
                  "NAME=RADIANS: the gate angle of a leaf revbound cannot compute "
                  "(opaque, or over 10 qubits); RADIANS may use pi, e.g. pi/2");
+  Cmd.add_option("--durations", O.DurationsFile,
+                 "TOML file of gate durations: compare the device's schedule "
+                 "with the bounds");
   Cmd.add_option("--max-dag-nodes", O.MaxDagNodes,
                  "largest leaf graph built for the critical path")
       ->capture_default_str();
@@ -140,6 +143,13 @@ llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O) {
   for (const std::string &Spec : O.GateAngles)
     if (llvm::Error E = addGateAngle(Spec, A.GivenAngles))
       return std::move(E);
+  if (!O.DurationsFile.empty()) {
+    config::ConfigError Error;
+    A.Durations = config::readDurations(O.DurationsFile, Error);
+    if (!A.Durations)
+      return llvm::createStringError(llvm::inconvertibleErrorCode(), "%s",
+                                     Error.format().c_str());
+  }
   A.Policy.Level = O.Granularity == "primitive" ? analysis::Granularity::Primitive
                                                 : analysis::Granularity::Native;
   for (const std::string &N : O.Native)
@@ -152,8 +162,11 @@ int analyzeAll(const InputOptions &O, report::Report &Out) {
   qasm::FrontendOptions Front = frontendOptions(O);
   llvm::Expected<report::AnalysisOptions> AnalysisOrErr = analysisOptions(O);
   if (!AnalysisOrErr) {
-    std::cerr << "revbound: error: " << llvm::toString(AnalysisOrErr.takeError())
-              << "\n";
+    // Messages from files already say "file:line:col: error:".
+    std::string Message = llvm::toString(AnalysisOrErr.takeError());
+    if (Message.find(": error: ") == std::string::npos)
+      Message = "revbound: error: " + Message;
+    std::cerr << Message << "\n";
     return ExitBadInput;
   }
   const report::AnalysisOptions &Analysis = *AnalysisOrErr;

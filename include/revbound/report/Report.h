@@ -9,6 +9,7 @@
 
 #include "revbound/analysis/Census.h"
 #include "revbound/analysis/LeafPolicy.h"
+#include "revbound/analysis/DeviceSchedule.h"
 #include "revbound/analysis/SpeedBounds.h"
 #include "revbound/qasm/Frontend.h"
 #include "revbound/support/SourceFiles.h"
@@ -52,6 +53,7 @@ struct Finding {
 struct SpeedReport {
   analysis::EnergyOptions Energy; // as given
   analysis::SpeedBounds Bounds;
+  std::optional<analysis::DeviceComparison> Device; // with --durations
 };
 
 struct CircuitReport {
@@ -78,6 +80,7 @@ struct AnalysisOptions {
   analysis::EnergyOptions Energy;
   llvm::StringMap<double> GivenAngles; // --gate-angle NAME=RADIANS
   unsigned MaxMatrixQubits = 10;       // widest leaf given a unitary
+  std::optional<config::Durations> Durations; // --durations FILE.toml
 };
 
 /// Reads, elaborates and analyses one file ("-" for standard input) whose

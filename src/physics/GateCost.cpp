@@ -43,12 +43,43 @@ static std::optional<Eigen::Matrix2cd> oneQubit(const ir::Circuit &C,
   return M;
 }
 
+/// Closed forms for the library's rotation gates, which are most of the
+/// parametrised leaves of real files: |tr U(theta, phi, lambda)| =
+/// 2 |cos(theta/2) cos((phi + lambda)/2)|, and the angle is arccos of half
+/// of it. std::nullopt for other gates.
+static std::optional<double> rotationAngle(const ir::GateDef &D,
+                                           llvm::ArrayRef<double> P) {
+  using std::numbers::pi;
+  auto fromU = [](double Theta, double PhiPlusLambda) {
+    return std::acos(std::min(
+        1.0, std::abs(std::cos(Theta / 2) * std::cos(PhiPlusLambda / 2))));
+  };
+  bool Builtin = D.Origin == ir::GateOrigin::Builtin;
+  bool Library = D.Origin == ir::GateOrigin::StandardLibrary;
+  if (Builtin && D.Name == "U")
+    return fromU(P[0], P[1] + P[2]);
+  if (!Library)
+    return std::nullopt;
+  llvm::StringRef N = D.Name;
+  if ((N == "u3" || N == "u") && P.size() == 3)
+    return fromU(P[0], P[1] + P[2]);
+  if (N == "u2" && P.size() == 2)
+    return fromU(pi / 2, P[0] + P[1]);
+  if ((N == "u1" || N == "p" || N == "rz") && P.size() == 1)
+    return fromU(0, P[0]);
+  if ((N == "rx" || N == "ry") && P.size() == 1)
+    return fromU(P[0], 0);
+  return std::nullopt;
+}
+
 std::optional<double> GateCostModel::angleOf(ir::GateId G,
                                              llvm::ArrayRef<double> Params) {
   const ir::GateDef &D = C.gate(G);
   auto Given = GivenAngles.find(D.Name);
   if (Given != GivenAngles.end())
     return std::clamp(Given->second, 0.0, std::numbers::pi / 2);
+  if (std::optional<double> Fast = rotationAngle(D, Params))
+    return Fast;
   if (D.numQubits() == 1) {
     // Two eigenvalues always fit an arc of at most pi, so L = arc/2 =
     // arccos(|tr U| / 2) (GateAngle.h's rule for two eigenvalues).
@@ -80,6 +111,22 @@ LeafCost GateCostModel::costOfAngle(double Angle) {
 }
 
 const LeafCost &GateCostModel::cost(ir::GateId G, llvm::ArrayRef<double> Params) {
+  // Fast paths: gates without parameters by id, rotations by closed form;
+  // only the rest pays for a keyed lookup.
+  if (Params.empty()) {
+    if (ById.size() <= G)
+      ById.resize(C.Gates.size());
+    if (!ById[G]) {
+      std::optional<double> Angle = angleOf(G, Params);
+      ById[G] = Angle ? costOfAngle(*Angle) : LeafCost();
+    }
+    return *ById[G];
+  }
+  if (!GivenAngles.count(C.gate(G).Name))
+    if (std::optional<double> Angle = rotationAngle(C.gate(G), Params)) {
+      Scratch = costOfAngle(*Angle);
+      return Scratch;
+    }
   std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
   std::memcpy(Key.data(), &G, sizeof(G));
   if (!Params.empty())

@@ -3,6 +3,7 @@
 #include "revbound/support/Constants.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <numbers>
 
@@ -14,8 +15,8 @@ using std::numbers::pi;
 // is defined for p in [(1 - sqrt eps)/2, (1 + sqrt eps)/2], where g runs
 // from -1 up to 2 eps - 1 and back; f' goes from minus to plus infinity
 // there, and the minimum is at its one sign change. The root of f' is found
-// by bisection, then the Illinois variant of regula falsi, to 1e-14 in p;
-// f is flat at its minimum, so the value is exact to rounding.
+// by bisection, then the Illinois variant of regula falsi, to 1e-8 in p;
+// f is flat at its minimum, so the value is exact to about 1e-12.
 static double objective(double P, double Epsilon) {
   double Arg = 1 - (1 - Epsilon) / (2 * P * (1 - P));
   return P * std::acos(std::clamp(Arg, -1.0, 1.0));
@@ -31,6 +32,33 @@ static double slope(double P, double Epsilon) {
   return std::acos(G) - P * DG / Root;
 }
 
+static double solveMinimiser(double Epsilon);
+
+/// The minimiser p* at 65 points of epsilon, linearly interpolated: only a
+/// starting point, so its accuracy does not matter for the result.
+static double minimiserGuess(double Epsilon) {
+  static const std::array<double, 65> Table = [] {
+    std::array<double, 65> T{};
+    for (int I = 0; I <= 64; ++I)
+      T[I] = solveMinimiser(std::clamp(I / 64.0, 1e-6, 1 - 1e-6));
+    return T;
+  }();
+  double X = Epsilon * 64;
+  int I = std::clamp(int(X), 0, 63);
+  return Table[I] + (Table[I + 1] - Table[I]) * (X - I);
+}
+
+/// The minimiser by bisection from the whole interval (slow; builds the table).
+static double solveMinimiser(double Epsilon) {
+  double Root = std::sqrt(Epsilon);
+  double A = (1 - Root) / 2, B = (1 + Root) / 2;
+  for (int I = 0; I < 60; ++I) {
+    double M = (A + B) / 2;
+    (slope(M, Epsilon) < 0 ? A : B) = M;
+  }
+  return (A + B) / 2;
+}
+
 double mlFactor(double Epsilon) {
   Epsilon = std::clamp(Epsilon, 0.0, 1.0);
   if (Epsilon == 0)
@@ -39,13 +67,21 @@ double mlFactor(double Epsilon) {
     return 0;
   double Root = std::sqrt(Epsilon);
   double A = (1 - Root) / 2, B = (1 + Root) / 2;
-  for (int I = 0; I < 12; ++I) {
+  // Narrow the bracket around a tabulated guess of the minimiser before
+  // bisecting; the bracket is kept only where the slope's signs confirm it.
+  double Guess = minimiserGuess(Epsilon);
+  double Width = (B - A) / 64;
+  if (Guess - Width > A && slope(Guess - Width, Epsilon) < 0)
+    A = Guess - Width;
+  if (Guess + Width < B && slope(Guess + Width, Epsilon) > 0)
+    B = Guess + Width;
+  for (int I = 0; I < 4; ++I) {
     double M = (A + B) / 2;
     (slope(M, Epsilon) < 0 ? A : B) = M;
   }
   double FA = slope(A, Epsilon), FB = slope(B, Epsilon);
   int Side = 0;
-  for (int I = 0; I < 100 && B - A > 1e-14; ++I) {
+  for (int I = 0; I < 100 && B - A > 1e-8; ++I) {
     double M = std::isfinite(FA) && std::isfinite(FB) && FB != FA
                    ? B - FB * (B - A) / (FB - FA)
                    : (A + B) / 2;

@@ -15,7 +15,9 @@
 #include "llvm/ADT/DenseMap.h"
 #include "llvm/ADT/StringMap.h"
 
+#include <optional>
 #include <string>
+#include <vector>
 #include <unordered_map>
 
 namespace revbound::physics {
@@ -35,7 +37,7 @@ public:
                 unsigned MaxMatrixQubits = 10);
 
   /// The cost of one application of leaf `G` with `Params`, memoised per
-  /// gate and parameter values.
+  /// gate and parameter values. The reference is valid until the next call.
   const LeafCost &cost(ir::GateId G, llvm::ArrayRef<double> Params);
 
   /// The cost of a step of angle `Angle` (memoised per value).
@@ -49,6 +51,8 @@ private:
   unsigned MaxMatrixQubits;
   ir::UnitaryCache Unitaries;
   std::unordered_map<std::string, LeafCost> ByCall;
+  std::vector<std::optional<LeafCost>> ById; // gates without parameters
+  LeafCost Scratch;
   llvm::DenseMap<uint64_t, double> ActionByAngle; // keyed by the double's bits
 };
 

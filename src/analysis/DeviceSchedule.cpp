@@ -217,7 +217,8 @@ compareWithDevice(const ir::Circuit &C, SummaryCache &Cache,
       StepEnergy = K.Qubits * *Energy.EnergyPerQubitJ;
     else if (Energy.EnergyJ)
       StepEnergy = *Energy.EnergyJ;
-    if (StepEnergy && K.MaxActionJs > 0) {
+    // A zero duration is a frame change, not an evolution: no ratio.
+    if (StepEnergy && K.MaxActionJs > 0 && T.DurationS > 0) {
       T.LimitS = K.MaxActionJs / *StepEnergy;
       T.SlowerBy = T.DurationS / *T.LimitS;
     }

@@ -51,6 +51,7 @@ private:
   double StepEnergyJ;
   std::optional<double> StepSpreadJ;
   std::unordered_map<std::string, std::unique_ptr<TimeSummary>> Memo;
+  unsigned Depth = 0;
 };
 
 const TimeSummary &SpeedAnalysis::summary(ir::GateId G,
@@ -63,6 +64,14 @@ const TimeSummary &SpeedAnalysis::summary(ir::GateId G,
   auto It = Memo.find(Key);
   if (It != Memo.end())
     return *It->second;
+  // A cache: bound it, but only where no summary is in use by a caller.
+  if (Depth == 0 && Memo.size() > 65536)
+    Memo.clear();
+  ++Depth;
+  struct Leave {
+    unsigned &D;
+    ~Leave() { --D; }
+  } L{Depth};
   const ir::GateDef &D = C.gate(G);
   unsigned K = D.numQubits();
   auto S = std::make_unique<TimeSummary>();

@@ -62,13 +62,32 @@ SummaryCache::SummaryCache(const ir::Circuit &Circ, const LeafPolicy &P)
     LeafFlags[I] = Policy.isLeaf(G);
     if (!LeafFlags[I] || G.numQubits() != 1)
       continue;
-    if (isAngleGate(G))
+    if (isAngleGate(G) && angleRuleHolds(ir::GateId(I)))
       TKinds[I] = TKind::ByAngle;
     else if (G.numParams() > 0)
       TKinds[I] = TKind::ByUnitary;
     else
       TKinds[I] = unitaryIsT(ir::GateId(I), {}) ? TKind::Always : TKind::Never;
   }
+}
+
+/// The angle rule goes by name; a --stdlib library may define `rz` as
+/// something else. Check the rule against the gate's unitary at angles
+/// where it says T and where it says not T.
+bool SummaryCache::angleRuleHolds(ir::GateId G) {
+  const ir::GateDef &D = C.gate(G);
+  const double Q = std::numbers::pi / 4;
+  std::vector<std::vector<double>> Samples;
+  if (D.numParams() == 1)
+    Samples = {{Q}, {-Q}, {Q / 2}, {2 * Q}};
+  else if (D.numParams() == 3)
+    Samples = {{0, Q, 0}, {0, 0, -Q}, {0, Q / 2, 0}, {0.3, Q, 0}};
+  else
+    return false;
+  for (const std::vector<double> &P : Samples)
+    if (isTLeaf(D, P) != unitaryIsT(G, P))
+      return false;
+  return true;
 }
 
 bool SummaryCache::unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params) {
@@ -98,8 +117,9 @@ bool SummaryCache::dependsOnParams(ir::GateId G) {
                                   [](const ir::ParamExpr &E) { return E.isConstant(); });
       if (Constant)
         continue;
-      const ir::GateDef &Callee = C.gate(B.Callee);
-      if (LeafFlags[B.Callee] ? isAngleGate(Callee) : dependsOnParams(B.Callee)) {
+      bool LeafDepends = TKinds[B.Callee] == TKind::ByAngle ||
+                         TKinds[B.Callee] == TKind::ByUnitary;
+      if (LeafFlags[B.Callee] ? LeafDepends : dependsOnParams(B.Callee)) {
         Sensitive = true;
         break;
       }
@@ -130,7 +150,8 @@ SummaryCache::get(ir::GateId G, llvm::ArrayRef<double> Params, llvm::SMLoc Loc) 
     return It->second.get();
   // Bound the memory of files that call one gate with millions of distinct
   // angles; only safe at the outermost call, where no summary is in use.
-  if (Depth == 0 && ByParams.size() > 65536) {
+  if (Depth == 0 && (ByParams.size() > 65536 ||
+                     MatrixEntries > MaxMatrixEntries / 2)) {
     for (const auto &[Key, S] : ByParams) {
       uint64_t K = S->Depth[0].size();
       MatrixEntries -= uint64_t(NumDepthMetrics + 2) * K * K;

@@ -2,7 +2,9 @@
 #include "revbound/config/Durations.h"
 #include "revbound/support/Units.h"
 
+#include <cctype>
 #include <cmath>
+#include "llvm/Support/FileSystem.h"
 #include <fmt/format.h>
 #include <toml++/toml.h>
 
@@ -33,11 +35,26 @@ static ConfigError at(const std::string &File, const toml::source_region &Where,
 
 std::optional<Durations> readDurations(const std::string &Path,
                                        ConfigError &Error) {
+  // A directory or a device would read as an empty table; say so instead.
+  llvm::sys::fs::file_status Status;
+  if (std::error_code EC = llvm::sys::fs::status(Path, Status)) {
+    Error = {Path, 0, 0, fmt::format("cannot open the durations file: {}", EC.message())};
+    return std::nullopt;
+  }
+  if (Status.type() != llvm::sys::fs::file_type::regular_file ||
+      Status.getSize() > (uint64_t(1) << 24)) {
+    Error = {Path, 0, 0, "the durations file must be a regular file of at most 16 MiB"};
+    return std::nullopt;
+  }
   toml::table Root;
   try {
     Root = toml::parse_file(Path);
   } catch (const toml::parse_error &E) {
-    Error = at(Path, E.source(), std::string(E.description()));
+    // TOML's messages start uppercase; ours start lowercase.
+    std::string Message(E.description());
+    if (!Message.empty())
+      Message[0] = char(std::tolower(static_cast<unsigned char>(Message[0])));
+    Error = at(Path, E.source(), Message);
     if (Error.Line == 0)
       Error.Message = fmt::format("cannot read durations: {}", E.description());
     return std::nullopt;
@@ -46,9 +63,9 @@ std::optional<Durations> readDurations(const std::string &Path,
   for (const auto &[Key, Node] : Root) {
     if (Key.str() != "durations") {
       Error = at(Path, Node.source(),
-                 fmt::format("unknown table '{}'; a durations file holds only "
+                 fmt::format("unknown {} '{}'; a durations file holds only "
                              "[durations]",
-                             Key.str()));
+                             Node.is_table() ? "table" : "key", Key.str()));
       return std::nullopt;
     }
     const toml::table *Table = Node.as_table();

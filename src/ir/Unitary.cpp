@@ -109,6 +109,9 @@ static void applyOn(Matrix &M, const Matrix &G, llvm::ArrayRef<uint32_t> On) {
 
 std::optional<Matrix> UnitaryCache::build(GateId G, llvm::ArrayRef<double> P) {
   const GateDef &D = C.gate(G);
+  for (double V : P)
+    if (!std::isfinite(V))
+      return std::nullopt; // e.g. 1/a at a = 0 inside a native leaf
   if (G == Circuit::UGate)
     return builtinU(P[0], P[1], P[2]);
   if (G == Circuit::CXGate) {
@@ -129,6 +132,12 @@ std::optional<Matrix> UnitaryCache::build(GateId G, llvm::ArrayRef<double> P) {
     Sub.clear();
     for (const ParamExpr &E : B.Params)
       Sub.push_back(E.evaluate(P));
+    // Each application costs 2^K * 2^K * 2^k multiply-adds; past the budget
+    // the unitary is unknown rather than slow.
+    uint64_t Cost = uint64_t(Dim) * uint64_t(Dim) << B.Qubits.size();
+    if (Cost > WorkLeft)
+      return std::nullopt;
+    WorkLeft -= Cost;
     const Matrix *Callee = get(B.Callee, Sub);
     if (!Callee)
       return std::nullopt;
@@ -138,10 +147,23 @@ std::optional<Matrix> UnitaryCache::build(GateId G, llvm::ArrayRef<double> P) {
 }
 
 const Matrix *UnitaryCache::get(GateId G, llvm::ArrayRef<double> Params) {
+  for (double V : Params)
+    if (!std::isfinite(V))
+      return nullptr; // and NaN would break the map's ordering
   auto Key = std::make_pair(G, std::vector<double>(Params.begin(), Params.end()));
   auto It = Cache.find(Key);
-  if (It == Cache.end())
-    It = Cache.emplace(Key, build(G, Params)).first;
+  if (It != Cache.end())
+    return It->second ? &*It->second : nullptr;
+  if (Depth == 0) {
+    // A cache: bound its memory, and give each outermost request its budget.
+    if (Cache.size() > MaxEntries)
+      Cache.clear();
+    WorkLeft = MaxWork;
+  }
+  ++Depth;
+  std::optional<Matrix> M = build(G, Params);
+  --Depth;
+  It = Cache.emplace(std::move(Key), std::move(M)).first;
   return It->second ? &*It->second : nullptr;
 }
 

@@ -33,8 +33,11 @@ static std::optional<Eigen::Matrix2cd> oneQubit(const ir::Circuit &C,
     if (B.IsBarrier)
       continue;
     Sub.clear();
-    for (const ir::ParamExpr &E : B.Params)
+    for (const ir::ParamExpr &E : B.Params) {
       Sub.push_back(E.evaluate(P));
+      if (!std::isfinite(Sub.back()))
+        return std::nullopt;
+    }
     std::optional<Eigen::Matrix2cd> Step = oneQubit(C, B.Callee, Sub);
     if (!Step)
       return std::nullopt;
@@ -78,8 +81,12 @@ std::optional<double> GateCostModel::angleOf(ir::GateId G,
   auto Given = GivenAngles.find(D.Name);
   if (Given != GivenAngles.end())
     return std::clamp(Given->second, 0.0, std::numbers::pi / 2);
-  if (std::optional<double> Fast = rotationAngle(D, Params))
-    return Fast;
+  if (rotationFormHolds(G))
+    if (std::optional<double> Fast = rotationAngle(D, Params))
+      return Fast;
+  for (double V : Params)
+    if (!std::isfinite(V))
+      return std::nullopt;
   if (D.numQubits() == 1) {
     // Two eigenvalues always fit an arc of at most pi, so L = arc/2 =
     // arccos(|tr U| / 2) (GateAngle.h's rule for two eigenvalues).
@@ -92,6 +99,33 @@ std::optional<double> GateCostModel::angleOf(ir::GateId G,
   if (!U)
     return std::nullopt;
   return gateAngle(*U);
+}
+
+/// rotationAngle goes by name; a --stdlib library may define `rz` as
+/// something else, so the closed form is checked once per gate against the
+/// unitary at generic angles.
+bool GateCostModel::rotationFormHolds(ir::GateId G) {
+  if (RotationChecked.size() <= G)
+    RotationChecked.resize(C.Gates.size(), -1);
+  if (RotationChecked[G] >= 0)
+    return RotationChecked[G];
+  const ir::GateDef &D = C.gate(G);
+  bool Holds = false;
+  std::vector<double> P(D.numParams());
+  for (int Trial = 0; Trial < 3; ++Trial) {
+    for (unsigned I = 0; I < P.size(); ++I)
+      P[I] = 0.37 + 0.61 * Trial + 0.23 * I;
+    std::optional<double> Fast = rotationAngle(D, P);
+    std::optional<Eigen::Matrix2cd> M =
+        D.numQubits() == 1 ? oneQubit(C, G, P) : std::nullopt;
+    Holds = Fast && M &&
+            std::abs(*Fast - std::acos(std::min(1.0, std::abs(M->trace()) / 2))) <
+                1e-9;
+    if (!Holds)
+      break;
+  }
+  RotationChecked[G] = Holds;
+  return Holds;
 }
 
 LeafCost GateCostModel::costOfAngle(double Angle) {
@@ -122,7 +156,7 @@ const LeafCost &GateCostModel::cost(ir::GateId G, llvm::ArrayRef<double> Params)
     }
     return *ById[G];
   }
-  if (!GivenAngles.count(C.gate(G).Name))
+  if (!GivenAngles.count(C.gate(G).Name) && rotationFormHolds(G))
     if (std::optional<double> Angle = rotationAngle(C.gate(G), Params)) {
       Scratch = costOfAngle(*Angle);
       return Scratch;

@@ -148,10 +148,18 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
       Names += (Names.empty() ? "" : ", ") + N;
     R.Warnings.push_back(
         {"warning", {R.File, 0, 0},
-         fmt::format("no gate angle is known for {}; {} step{} count as "
-                     "taking no time (give one with --gate-angle NAME=RADIANS)",
+         fmt::format("no gate angle is known for {}; {} step{} as taking "
+                     "no time (give one with --gate-angle NAME=RADIANS)",
                      Names, R.Speed.Bounds.UnknownSteps,
-                     R.Speed.Bounds.UnknownSteps == 1 ? "" : "s")});
+                     R.Speed.Bounds.UnknownSteps == 1 ? " counts" : "s count")});
+  }
+  if (R.Speed.Device && R.Speed.Device->Ratio && *R.Speed.Device->Ratio > 1) {
+    R.Warnings.push_back(
+        {"warning", {R.File, 0, 0},
+         fmt::format("the durations give a schedule {:.3g} times shorter than "
+                     "physics allows at the stated energy; check the durations "
+                     "or the energy",
+                     *R.Speed.Device->Ratio)});
   }
   return R;
 }

@@ -5,6 +5,8 @@
 #include "llvm/ADT/StringSwitch.h"
 
 #include <charconv>
+#include <cstdlib>
+#include <string>
 #include <cmath>
 #include <fmt/format.h>
 #include <optional>
@@ -41,7 +43,7 @@ static std::optional<double> prefixFactor(llvm::StringRef P) {
       .Case("f", 1e-15)
       .Case("p", 1e-12)
       .Case("n", 1e-9)
-      .Cases("u", "\xC2\xB5", "mu", 1e-6)
+      .Cases("u", "\xC2\xB5", "\xCE\xBC", "mu", 1e-6) // u, micro sign, Greek mu
       .Case("m", 1e-3)
       .Case("k", 1e3)
       .Case("M", 1e6)
@@ -84,18 +86,37 @@ llvm::Expected<double> parseQuantity(llvm::StringRef Text, Dimension D,
     return llvm::createStringError(llvm::inconvertibleErrorCode(), "%s",
                                    Why.c_str());
   };
+  if (Ec == std::errc::result_out_of_range)
+    return fail(fmt::format("the {} '{}' is out of range", dimensionName(D),
+                            Text.str()));
   if (Ec != std::errc() || Ptr == T.begin())
-    return fail(fmt::format("'{}' is not a {}: expected a number then {}",
+    return fail(fmt::format("'{}' is not a valid {}: expected a number then {}",
                             Text.str(), dimensionName(D), acceptedUnits(D)));
   llvm::StringRef Unit = llvm::StringRef(Ptr, size_t(T.end() - Ptr)).trim();
   std::optional<double> Factor = unitFactor(Unit, D);
   if (!Factor)
     return fail(fmt::format("'{}' is not a unit of {}; use {}", Unit.str(),
                             dimensionName(D), acceptedUnits(D)));
+  // Apply a power of ten through the decimal text when the unit is one, so
+  // that "50ns" is the double nearest to 5e-8, not 50 * 1e-9.
   double SI = Value * *Factor;
-  if (!std::isfinite(SI) || SI < 0 || (SI == 0 && !AllowZero))
-    return fail(fmt::format("the {} '{}' must be positive and finite",
-                            dimensionName(D), Text.str()));
+  int Exp = int(std::lround(std::log10(*Factor)));
+  if (std::pow(10.0, Exp) == *Factor && Exp != 0) {
+    std::string Text(T.begin(), Ptr);
+    size_t E = Text.find_first_of("eE");
+    long Total = Exp;
+    if (E != std::string::npos) {
+      Total += std::strtol(Text.c_str() + E + 1, nullptr, 10);
+      Text.resize(E);
+    }
+    SI = std::strtod((Text + "e" + std::to_string(Total)).c_str(), nullptr);
+  }
+  if (!std::isfinite(SI))
+    return fail(fmt::format("the {} '{}' is out of range", dimensionName(D),
+                            Text.str()));
+  if (SI < 0 || (SI == 0 && !AllowZero))
+    return fail(fmt::format("the {} '{}' must be positive", dimensionName(D),
+                            Text.str()));
   return SI;
 }
 

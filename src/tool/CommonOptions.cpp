@@ -9,6 +9,7 @@
 #include "llvm/Support/raw_ostream.h"
 
 #include <fmt/format.h>
+#include <numbers>
 #include <iostream>
 
 namespace revbound::tool {
@@ -115,6 +116,8 @@ static llvm::Error addGateAngle(const std::string &Spec,
   }
   if (C->Params.size() != 3)
     return fail("the angle is not a single expression");
+  if (C->Params[0] < 0 || C->Params[0] > std::numbers::pi / 2 + 1e-12)
+    return fail("a gate angle lies in [0, pi/2]");
   Out[Spec.substr(0, Eq)] = C->Params[0];
   return llvm::Error::success();
 }

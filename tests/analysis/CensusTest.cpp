@@ -3,6 +3,9 @@
 
 #include <gtest/gtest.h>
 
+#include <cstdlib>
+#include <unistd.h>
+
 using namespace revbound;
 using test::analyzeText;
 using test::countOf;
@@ -94,4 +97,38 @@ TEST(Census, OpaqueGatesAreLeaves) {
   EXPECT_EQ(countOf(R->Ops.ByName, "magic"), 1u);
   EXPECT_EQ(R->Ops.PrimitiveU + R->Ops.PrimitiveCX, 0u);
   EXPECT_EQ(R->DepthAll, 1u);
+}
+
+// A native one-qubit leaf is T by its unitary; a gate calling it with its
+// own parameter is summarised per angle (found in review: the first call's
+// angle was reused).
+TEST(Census, UnitaryTestedLeavesAreSummarisedPerAngle) {
+  report::AnalysisOptions Opts;
+  Opts.Policy.NativeNames.insert("myp");
+  auto R = analyzeText("OPENQASM 2.0;\ngate myp(a) q { U(0,0,a) q; }\n"
+                       "gate g(a) q { myp(a) q; }\nqreg q[1];\n"
+                       "g(pi/2) q[0];\ng(pi/4) q[0];\ng(pi/4) q[0];\n",
+                       Opts);
+  ASSERT_TRUE(R);
+  EXPECT_EQ(R->Ops.TCount, 2u);
+}
+
+// The angle rule goes by name only where the name means the library's gate:
+// a library that defines rz(phi) as u1(2 phi) gets the unitary test.
+TEST(Census, AngleRuleCheckedAgainstTheDefinition) {
+  std::string Lib = "gate u1(lambda) q { U(0,0,lambda) q; }\n"
+                    "gate rz(phi) a { u1(2*phi) a; }\n";
+  char Path[] = "/tmp/revbound-lib-XXXXXX";
+  int Fd = mkstemp(Path);
+  ASSERT_GE(Fd, 0);
+  ASSERT_EQ(write(Fd, Lib.data(), Lib.size()), ssize_t(Lib.size()));
+  close(Fd);
+  qasm::FrontendOptions Front;
+  Front.Parser.StandardLibraryPath = Path;
+  auto R = analyzeText("OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg q[1];\n"
+                       "rz(pi/4) q[0];\nrz(pi/8) q[0];\n",
+                       {}, Front);
+  unlink(Path);
+  ASSERT_TRUE(R);
+  EXPECT_EQ(R->Ops.TCount, 1u); // rz(pi/8) is u1(pi/4) = T here
 }

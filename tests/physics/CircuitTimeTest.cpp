@@ -91,3 +91,15 @@ TEST(CircuitTime, ConditionalAndOpaqueSteps) {
   EXPECT_EQ(R->Speed.Bounds.UnknownSteps, 0u);
   EXPECT_NEAR(R->Speed.Bounds.ActionJs, Orthogonal, 1e-48);
 }
+
+// A native leaf whose body angle is not finite has no known angle: it is
+// counted as unknown, never as a step of angle 0 (found in review).
+TEST(CircuitTime, NonFiniteAngleInsideANativeLeaf) {
+  report::AnalysisOptions Opts;
+  Opts.Policy.NativeNames.insert("g");
+  auto R = test::analyzeText(std::string(Header) + "gate g(a) q { rz(1/a) q; }\n"
+                                                   "qreg q[1];\ng(0) q[0];\n",
+                             Opts);
+  ASSERT_TRUE(R);
+  EXPECT_EQ(R->Speed.Bounds.UnknownSteps, 1u);
+}

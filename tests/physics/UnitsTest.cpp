@@ -46,6 +46,11 @@ TEST(Units, EnergiesTemperaturesTimes) {
   EXPECT_DOUBLE_EQ(value("10ns", Dimension::Time), 1e-8);
   EXPECT_DOUBLE_EQ(value("3 us", Dimension::Time), 3e-6);
   EXPECT_DOUBLE_EQ(value("1 fs", Dimension::Time), 1e-15);
+  // Prefixes go through the decimal text: the nearest double, exactly.
+  EXPECT_EQ(value("50ns", Dimension::Time), 5e-8);
+  EXPECT_EQ(value("2.5e3 us", Dimension::Time), 2.5e-3);
+  EXPECT_EQ(value("7 \xCE\xBCs", Dimension::Time), 7e-6);   // Greek mu
+  EXPECT_EQ(value("7 \xC2\xB5s", Dimension::Time), 7e-6);   // micro sign
 }
 
 TEST(Units, WrongUnitsAreErrors) {
@@ -56,9 +61,12 @@ TEST(Units, WrongUnitsAreErrors) {
             "'eV' is not a unit of time; use s with an SI prefix (e.g. 1s, "
             "20ns, 3 us)");
   EXPECT_EQ(error("-1 J", Dimension::Energy),
-            "the energy '-1 J' must be positive and finite");
+            "the energy '-1 J' must be positive");
   EXPECT_EQ(error("0 K", Dimension::Temperature),
-            "the temperature '0 K' must be positive and finite");
+            "the temperature '0 K' must be positive");
   EXPECT_NE(error("eV", Dimension::Energy), "");
-  EXPECT_NE(error("1e999 J", Dimension::Energy), "");
+  EXPECT_EQ(error("1e999 J", Dimension::Energy),
+            "the energy '1e999 J' is out of range");
+  EXPECT_EQ(error("1e400eV", Dimension::Energy),
+            "the energy '1e400eV' is out of range");
 }

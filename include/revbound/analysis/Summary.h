@@ -113,6 +113,7 @@ private:
   enum class TKind : uint8_t { Never, Always, ByAngle, ByUnitary };
   std::vector<TKind> TKinds;
   bool unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params);
+  bool angleRuleHolds(ir::GateId G);
   std::unique_ptr<ir::UnitaryCache> Unitaries;
   std::vector<int8_t> ParamSensitive; // -1 unknown, 0 no, 1 yes
   std::vector<std::unique_ptr<GateSummary>> ById;

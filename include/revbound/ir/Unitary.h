@@ -52,9 +52,10 @@ public:
   explicit UnitaryCache(const Circuit &C, unsigned MaxQubits = 10)
       : C(C), MaxQubits(MaxQubits) {}
 
-  /// The unitary of gate `G` with `Params`; std::nullopt for opaque gates,
-  /// gates that call one, and gates on more than MaxQubits qubits. The
-  /// pointer stays valid as long as the cache.
+  /// The unitary of gate `G` with `Params`; nullptr for opaque gates, gates
+  /// that call one, gates on more than MaxQubits qubits, non-finite
+  /// parameters, and matrices that would take more than MaxWork
+  /// multiply-adds to build. The pointer is valid until the next call.
   const Matrix *get(GateId G, llvm::ArrayRef<double> Params);
 
 private:
@@ -63,6 +64,10 @@ private:
   const Circuit &C;
   unsigned MaxQubits;
   std::map<std::pair<GateId, std::vector<double>>, std::optional<Matrix>> Cache;
+  static constexpr uint64_t MaxWork = uint64_t(1) << 30;
+  static constexpr size_t MaxEntries = 4096;
+  uint64_t WorkLeft = MaxWork;
+  unsigned Depth = 0;
 };
 
 } // namespace revbound::ir

@@ -45,6 +45,8 @@ public:
 
 private:
   std::optional<double> angleOf(ir::GateId G, llvm::ArrayRef<double> Params);
+  bool rotationFormHolds(ir::GateId G);
+  std::vector<int8_t> RotationChecked; // -1 unknown, 0 no, 1 yes
 
   const ir::Circuit &C;
   llvm::StringMap<double> GivenAngles;

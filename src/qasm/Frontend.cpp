@@ -10,7 +10,10 @@
 #include "revbound/qasm/Frontend.h"
 
 #include "llvm/ADT/SmallSet.h"
+#include "llvm/Support/Compiler.h"
 
+#include <algorithm>
+#include <array>
 #include <cmath>
 #include <fmt/format.h>
 #include <numbers>
@@ -105,6 +108,43 @@ llvm::Error compileExpr(const Expr *Root, llvm::ArrayRef<Ident> Scope,
   return llvm::Error::success();
 }
 
+/// A direct-mapped cache in front of a StringMap that never loses an entry.
+/// Flat files name the same few gates and registers on every line; a hit
+/// costs a short hash and one comparison instead of a probe of the map.
+/// The value is read through the cached entry and StringMap entries never
+/// move, so a name that gets a new value (a library gate replaced by the
+/// user's own) needs no invalidation. Colliding names only miss.
+template <typename ValueT> class NameCache {
+public:
+  using Entry = llvm::StringMapEntry<ValueT>;
+
+  explicit NameCache(const llvm::StringMap<ValueT> &Map) : Map(Map) {}
+
+  /// The entry for `Name`, or null if the map has none.
+  const Entry *find(llvm::StringRef Name) {
+    const Entry *&Slot = Slots[slotOf(Name)];
+    if (Slot && Slot->getKey() == Name)
+      return Slot;
+    auto It = Map.find(Name);
+    if (It == Map.end())
+      return nullptr;
+    Slot = &*It;
+    return Slot;
+  }
+
+private:
+  static constexpr unsigned NumSlots = 64;
+  static unsigned slotOf(llvm::StringRef Name) {
+    unsigned H = 0;
+    for (char Ch : Name)
+      H = H * 33 + static_cast<unsigned char>(Ch);
+    return H % NumSlots;
+  }
+
+  const llvm::StringMap<ValueT> &Map;
+  std::array<const Entry *, NumSlots> Slots{};
+};
+
 /// A resolved top-level operand: one wire, or a whole register.
 struct WireRef {
   uint32_t First = 0;
@@ -119,9 +159,12 @@ public:
       : Limits(Limits), Warnings(Warnings) {}
 
   llvm::Error onStatement(const Statement &S) override;
+  /// Sizes the op and wire pools for the main file's text.
+  void reserveFor(llvm::StringRef MainText);
   ir::Circuit take() { return std::move(C); }
 
 private:
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error applyOther(const Statement &S);
   llvm::Error declareRegister(const Statement &S);
   llvm::Error defineGate(const GateDecl &D);
   llvm::Error compileBody(const GateDecl &D, ir::GateDef &G);
@@ -133,30 +176,68 @@ private:
   llvm::Expected<ir::GateId> lookupGate(const Ident &Name);
   llvm::Expected<WireRef> resolve(const Operand &O, bool Quantum);
   llvm::Error checkBroadcast(llvm::ArrayRef<WireRef> Refs, uint64_t &Count);
-  llvm::Error addOp(ir::Op O);
+  // Once per op; as a call it would cost a frame for the pool's growth path.
+  LLVM_ATTRIBUTE_ALWAYS_INLINE llvm::Error addOp(ir::Op O);
 
-  const ir::Register *findRegister(llvm::StringRef Name, bool &IsQuantum) const;
+  const ir::Register *findRegister(llvm::StringRef Name, bool &IsQuantum);
+
+  // Diagnostics of the paths taken for every line, out of line so that those
+  // keep small frames.
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorUnknownGate(const Ident &Name);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorOperand(const Operand &O,
+                                                   bool Quantum,
+                                                   const ir::Register *R,
+                                                   bool IsQuantum);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorArity(const GateCall &Call,
+                                                 const ir::GateDef &Def);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error
+  errorRepeatedQubit(const Operand &Arg, uint32_t Q, const ir::GateDef &Def);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorTooManyOps(llvm::SMLoc Loc);
 
   const FrontendLimits &Limits;
   DiagnosticSink &Warnings;
   ir::Circuit C;
   bool SawStandardLibrary = false;
   llvm::StringMap<uint32_t> RegisterByName; // index * 2 + (1 for quantum)
+  NameCache<uint32_t> RegisterCache{RegisterByName};
+  NameCache<ir::GateId> GateCache{C.GateByName};
   llvm::SmallVector<WireRef, 4> Refs;     // reused per statement
   llvm::SmallVector<uint32_t, 8> Qubits;  // reused per statement
 };
 
 const ir::Register *Elaborator::findRegister(llvm::StringRef Name,
-                                             bool &IsQuantum) const {
-  auto It = RegisterByName.find(Name);
-  if (It == RegisterByName.end())
+                                             bool &IsQuantum) {
+  const auto *Entry = RegisterCache.find(Name);
+  if (!Entry)
     return nullptr;
   // Encoded as index * 2 + (1 for quantum).
-  IsQuantum = It->second & 1;
-  return IsQuantum ? &C.QRegs[It->second >> 1] : &C.CRegs[It->second >> 1];
+  uint32_t Code = Entry->getValue();
+  IsQuantum = Code & 1;
+  return IsQuantum ? &C.QRegs[Code >> 1] : &C.CRegs[Code >> 1];
+}
+
+void Elaborator::reserveFor(llvm::StringRef MainText) {
+  // Most statements of a flat file are one op and end in ';', so this
+  // estimate spares the pools their repeated doubling (copies, and twice the
+  // memory for a moment); broadcasts and includes may still grow them. The
+  // cap keeps what a file of ';' can make us reserve to a few times its own
+  // size: few op statements are shorter than "h q[0];" and a newline.
+  uint64_t Estimate = std::min<uint64_t>(
+      {MainText.count(';'), MainText.size() / 8, Limits.MaxOps});
+  C.Ops.reserve(Estimate);
+  C.Wires.reserve(2 * Estimate); // gates on one or two qubits are the norm
 }
 
 llvm::Error Elaborator::onStatement(const Statement &S) {
+  // Unconditional gate calls are nearly every line of a large file; the
+  // other statements go through a function of their own so that these do
+  // not pay for its frame.
+  if (S.Kind == StmtKind::GateCall && !S.HasCondition)
+    return applyGate(S, ir::NoCondition);
+  return applyOther(S);
+}
+
+llvm::Error Elaborator::applyOther(const Statement &S) {
   switch (S.Kind) {
   case StmtKind::QReg:
   case StmtKind::CReg:
@@ -362,9 +443,12 @@ llvm::Error Elaborator::compileBody(const GateDecl &D, ir::GateDef &G) {
 }
 
 llvm::Expected<ir::GateId> Elaborator::lookupGate(const Ident &Name) {
-  auto It = C.GateByName.find(Name.Name);
-  if (It != C.GateByName.end())
-    return It->second;
+  if (const auto *Entry = GateCache.find(Name.Name))
+    return Entry->getValue();
+  return errorUnknownGate(Name);
+}
+
+llvm::Error Elaborator::errorUnknownGate(const Ident &Name) {
   llvm::Error E = errorAt(Name.Loc,
                           fmt::format("unknown gate '{}'", Name.Name.str()),
                           unsigned(Name.Name.size()));
@@ -372,12 +456,28 @@ llvm::Expected<ir::GateId> Elaborator::lookupGate(const Ident &Name) {
     return withNote(std::move(E), llvm::SMLoc(),
                     "the standard gates (h, cx, ccx, ...) come from "
                     "'include \"qelib1.inc\";'");
-  return std::move(E);
+  return E;
 }
 
 llvm::Expected<WireRef> Elaborator::resolve(const Operand &O, bool Quantum) {
   bool IsQuantum = false;
   const ir::Register *R = findRegister(O.Reg.Name, IsQuantum);
+  if (!R || IsQuantum != Quantum || (O.HasIndex && O.Index >= R->Size))
+    return errorOperand(O, Quantum, R, IsQuantum);
+  WireRef W;
+  W.Source = &O;
+  if (!O.HasIndex) {
+    W.First = R->Offset;
+    W.Count = R->Size;
+    W.IsRegister = true;
+    return W;
+  }
+  W.First = R->Offset + uint32_t(O.Index);
+  return W;
+}
+
+llvm::Error Elaborator::errorOperand(const Operand &O, bool Quantum,
+                                     const ir::Register *R, bool IsQuantum) {
   unsigned Len = unsigned(O.Reg.Name.size());
   if (!R)
     return errorAt(O.Reg.Loc,
@@ -392,24 +492,12 @@ llvm::Expected<WireRef> Elaborator::resolve(const Operand &O, bool Quantum) {
                                IsQuantum ? "quantum" : "classical",
                                Quantum ? "quantum" : "classical"),
                    Len);
-  WireRef W;
-  W.Source = &O;
-  if (!O.HasIndex) {
-    W.First = R->Offset;
-    W.Count = R->Size;
-    W.IsRegister = true;
-    return W;
-  }
-  if (O.Index >= R->Size)
-    return withNote(errorAt(O.IndexLoc,
-                            fmt::format("index {} is out of range for register "
-                                        "'{}' of size {}",
-                                        O.Index, R->Name, R->Size),
-                            O.IndexLength),
-                    R->Loc, "register declared here",
-                    unsigned(R->Name.size()));
-  W.First = R->Offset + uint32_t(O.Index);
-  return W;
+  return withNote(errorAt(O.IndexLoc,
+                          fmt::format("index {} is out of range for register "
+                                      "'{}' of size {}",
+                                      O.Index, R->Name, R->Size),
+                          O.IndexLength),
+                  R->Loc, "register declared here", unsigned(R->Name.size()));
 }
 
 /// Broadcasting (specification, section 3): register operands must all have
@@ -443,12 +531,15 @@ llvm::Error Elaborator::checkBroadcast(llvm::ArrayRef<WireRef> Refs,
 
 llvm::Error Elaborator::addOp(ir::Op O) {
   if (C.Ops.size() >= Limits.MaxOps)
-    return errorAt(O.Loc,
-                   fmt::format("more than {} top-level operations after "
-                               "broadcasting (--max-ops)",
-                               Limits.MaxOps));
+    return errorTooManyOps(O.Loc);
   C.Ops.push_back(O);
   return llvm::Error::success();
+}
+
+llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
+  return errorAt(Loc, fmt::format("more than {} top-level operations after "
+                                  "broadcasting (--max-ops)",
+                                  Limits.MaxOps));
 }
 
 llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {
@@ -457,27 +548,21 @@ llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {
   if (!Id)
     return Id.takeError();
   const ir::GateDef &Def = C.gate(*Id);
-  unsigned NameLen = unsigned(Call.Gate.Name.size());
-  if (Call.Params.size() != Def.numParams())
-    return errorAt(Call.Gate.Loc,
-                   fmt::format("gate '{}' takes {} parameter{}, got {}", Def.Name,
-                               Def.numParams(), Def.numParams() == 1 ? "" : "s",
-                               Call.Params.size()),
-                   NameLen);
-  if (Call.Args.size() != Def.numQubits())
-    return errorAt(Call.Gate.Loc,
-                   fmt::format("gate '{}' acts on {} qubit{}, got {}", Def.Name,
-                               Def.numQubits(), Def.numQubits() == 1 ? "" : "s",
-                               Call.Args.size()),
-                   NameLen);
+  if (Call.Params.size() != Def.numParams() ||
+      Call.Args.size() != Def.numQubits())
+    return errorArity(Call, Def);
   uint32_t FirstParam = uint32_t(C.Params.size());
   for (const Expr *P : Call.Params) {
-    ir::ParamExpr PE;
-    if (llvm::Error E = compileExpr(P, {}, PE)) {
-      C.Params.resize(FirstParam);
-      return E;
+    // A literal, the most common parameter, is its own value.
+    double V = P->Value;
+    if (P->Kind != ExprKind::Number) {
+      ir::ParamExpr PE;
+      if (llvm::Error E = compileExpr(P, {}, PE)) {
+        C.Params.resize(FirstParam);
+        return E;
+      }
+      V = PE.evaluate({});
     }
-    double V = PE.evaluate({});
     if (!std::isfinite(V)) {
       C.Params.resize(FirstParam);
       return errorAt(P->Loc, "parameter evaluates to a non-finite value",
@@ -509,11 +594,7 @@ llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {
       for (unsigned B = 0; B < A; ++B)
         if (C.Wires[O.FirstWire + B] == Q) {
           C.Wires.resize(O.FirstWire);
-          return errorAt(Refs[A].Source->Reg.Loc,
-                         fmt::format("qubit {} is used twice in one "
-                                     "application of '{}'",
-                                     C.qubitName(Q), Def.Name),
-                         Refs[A].Source->length());
+          return errorRepeatedQubit(*Refs[A].Source, Q, Def);
         }
       C.Wires.push_back(Q);
     }
@@ -521,6 +602,32 @@ llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {
       return E;
   }
   return llvm::Error::success();
+}
+
+llvm::Error Elaborator::errorArity(const GateCall &Call,
+                                   const ir::GateDef &Def) {
+  unsigned NameLen = unsigned(Call.Gate.Name.size());
+  if (Call.Params.size() != Def.numParams())
+    return errorAt(Call.Gate.Loc,
+                   fmt::format("gate '{}' takes {} parameter{}, got {}",
+                               Def.Name, Def.numParams(),
+                               Def.numParams() == 1 ? "" : "s",
+                               Call.Params.size()),
+                   NameLen);
+  return errorAt(Call.Gate.Loc,
+                 fmt::format("gate '{}' acts on {} qubit{}, got {}", Def.Name,
+                             Def.numQubits(), Def.numQubits() == 1 ? "" : "s",
+                             Call.Args.size()),
+                 NameLen);
+}
+
+llvm::Error Elaborator::errorRepeatedQubit(const Operand &Arg, uint32_t Q,
+                                           const ir::GateDef &Def) {
+  return errorAt(Arg.Reg.Loc,
+                 fmt::format("qubit {} is used twice in one application of "
+                             "'{}'",
+                             C.qubitName(Q), Def.Name),
+                 Arg.length());
 }
 
 llvm::Error Elaborator::applyMeasure(const Statement &S, uint32_t Cond) {
@@ -634,6 +741,7 @@ llvm::Expected<ir::Circuit> buildCircuit(SourceFiles &Files, unsigned BufferId,
                                          const FrontendOptions &Opts,
                                          DiagnosticSink &Warnings) {
   Elaborator E(Opts.Limits, Warnings);
+  E.reserveFor(Files.mgr().getMemoryBuffer(BufferId)->getBuffer());
   if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings))
     return std::move(Err);
   return E.take();

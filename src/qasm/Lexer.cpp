@@ -1,10 +1,14 @@
 //===- Lexer.cpp - Tokens of OpenQASM 2.0 --------------------------------===//
 #include "revbound/qasm/Lexer.h"
 
-#include "llvm/ADT/StringSwitch.h"
+#include "llvm/Support/Compiler.h"
 #include "llvm/Support/ConvertUTF.h"
 
 #include <fmt/format.h>
+
+#include <algorithm>
+#include <array>
+#include <cassert>
 
 namespace revbound::qasm {
 
@@ -61,35 +65,75 @@ std::string describe(const Token &T) {
   }
 }
 
-Lexer::Lexer(llvm::StringRef Buffer)
-    : Cur(Buffer.begin()), End(Buffer.end()) {}
-
-Token Lexer::make(Tok K, const char *Start) const {
-  Token T;
-  T.Kind = K;
-  T.Text = llvm::StringRef(Start, size_t(Cur - Start));
-  T.Loc = llvm::SMLoc::getFromPointer(Start);
-  T.End = Cur;
-  return T;
+Lexer::Lexer(llvm::StringRef Buffer) : Cur(Buffer.begin()), End(Buffer.end()) {
+  assert(*End == '\0' && "the lexer relies on the buffer's NUL terminator");
 }
 
-Token Lexer::error(const char *At, unsigned Length, std::string Message) {
-  ErrorMessage = std::move(Message);
-  Token T;
-  T.Kind = Tok::Error;
-  T.Text = llvm::StringRef(At, Length);
-  T.Loc = llvm::SMLoc::getFromPointer(At);
+Token Lexer::error(const char *At, unsigned Length, llvm::StringRef Message) {
+  ErrorMessage = Message.str();
   Cur = End; // nothing after a lexical error is trusted
-  return T;
+  return Token{Tok::Error, llvm::StringRef(At, Length)};
 }
 
-static bool isIdentStart(char C) {
-  return (C >= 'a' && C <= 'z') || (C >= 'A' && C <= 'Z') || C == '_';
+namespace {
+
+/// Byte classes, one bit each, so that "may continue a name" is one test.
+enum CharClass : uint8_t {
+  ClassSpace = 1,
+  ClassIdentStart = 2,
+  ClassDigit = 4
+};
+
+constexpr std::array<uint8_t, 256> makeCharClasses() {
+  std::array<uint8_t, 256> Classes{};
+  for (char C : {' ', '\t', '\n', '\r', '\f', '\v'})
+    Classes[static_cast<unsigned char>(C)] = ClassSpace;
+  for (int C = 'a'; C <= 'z'; ++C)
+    Classes[C] = ClassIdentStart;
+  for (int C = 'A'; C <= 'Z'; ++C)
+    Classes[C] = ClassIdentStart;
+  Classes['_'] = ClassIdentStart;
+  for (int C = '0'; C <= '9'; ++C)
+    Classes[C] = ClassDigit;
+  return Classes;
 }
-static bool isIdentBody(char C) {
-  return isIdentStart(C) || (C >= '0' && C <= '9');
+
+constexpr std::array<uint8_t, 256> CharClasses = makeCharClasses();
+
+bool hasClass(char C, uint8_t Mask) {
+  return CharClasses[static_cast<unsigned char>(C)] & Mask;
 }
-static bool isDigit(char C) { return C >= '0' && C <= '9'; }
+bool isSpace(char C) { return hasClass(C, ClassSpace); }
+bool isIdentStart(char C) { return hasClass(C, ClassIdentStart); }
+bool isIdentBody(char C) { return hasClass(C, ClassIdentStart | ClassDigit); }
+bool isDigit(char C) { return hasClass(C, ClassDigit); }
+
+/// The keyword spelled by `Name`, or Tok::Identifier. The first letter
+/// leaves at most two candidates, so ordinary names (q, cx, rz) cost a
+/// length comparison or none.
+Tok keywordKind(llvm::StringRef Name) {
+  auto Match = [&](llvm::StringRef Keyword, Tok K) {
+    return Name == Keyword ? K : Tok::Identifier;
+  };
+  switch (Name[0]) {
+  case 'O': return Match("OPENQASM", Tok::KwOpenqasm);
+  case 'i': return Name.size() == 2 ? Match("if", Tok::KwIf)
+                                    : Match("include", Tok::KwInclude);
+  case 'q': return Match("qreg", Tok::KwQreg);
+  case 'c': return Match("creg", Tok::KwCreg);
+  case 'g': return Match("gate", Tok::KwGate);
+  case 'o': return Match("opaque", Tok::KwOpaque);
+  case 'm': return Match("measure", Tok::KwMeasure);
+  case 'r': return Match("reset", Tok::KwReset);
+  case 'b': return Match("barrier", Tok::KwBarrier);
+  case 'p': return Match("pi", Tok::KwPi);
+  case 'U': return Match("U", Tok::KwU);
+  case 'C': return Match("CX", Tok::KwCX);
+  default: return Tok::Identifier;
+  }
+}
+
+} // namespace
 
 bool Lexer::skipComment() {
   const char *Start = Cur;
@@ -108,66 +152,67 @@ bool Lexer::skipComment() {
   return llvm::isLegalUTF8String(&P, E);
 }
 
+// *End is a NUL, which no class and no punctuation matches, so the loops
+// here stop at it without comparing with End, and looking one byte past a
+// byte that is not NUL stays inside the buffer. The loops advance a local
+// pointer: a char store through `Cur` could alias anything, which would keep
+// the compiler writing it back on every byte.
 Token Lexer::lex() {
-  while (Cur < End) {
-    char C = *Cur;
-    if (C == ' ' || C == '\t' || C == '\n' || C == '\r' || C == '\f' ||
-        C == '\v') {
-      ++Cur;
-      continue;
-    }
-    if (C == '/' && Cur + 1 < End && Cur[1] == '/') {
-      const char *Start = Cur;
-      if (!skipComment())
-        return error(Start, 2, "comment holds invalid UTF-8 or a NUL byte");
-      continue;
-    }
-    break;
-  }
-  if (Cur >= End) {
-    Token T;
-    T.Kind = Tok::Eof;
-    T.Loc = llvm::SMLoc::getFromPointer(End);
-    return T;
-  }
-  const char *Start = Cur;
-  char C = *Cur;
+  const char *P = Cur;
+  while (isSpace(*P))
+    ++P;
+  Cur = P;
+  char C = *P;
   if (isIdentStart(C))
-    return lexIdentifier(Start);
-  if (isDigit(C) || (C == '.' && Cur + 1 < End && isDigit(Cur[1])))
-    return lexNumber(Start);
-  if (C == '"')
-    return lexString(Start);
-  ++Cur;
+    return lexIdentifier(P);
+  if (isDigit(C) || (C == '.' && isDigit(P[1])))
+    return lexNumber(P);
   switch (C) {
-  case ';': return make(Tok::Semi, Start);
-  case ',': return make(Tok::Comma, Start);
-  case '(': return make(Tok::LParen, Start);
-  case ')': return make(Tok::RParen, Start);
-  case '[': return make(Tok::LBracket, Start);
-  case ']': return make(Tok::RBracket, Start);
-  case '{': return make(Tok::LBrace, Start);
-  case '}': return make(Tok::RBrace, Start);
-  case '+': return make(Tok::Plus, Start);
-  case '*': return make(Tok::Star, Start);
-  case '/': return make(Tok::Slash, Start);
-  case '^': return make(Tok::Caret, Start);
-  case '-':
-    if (Cur < End && *Cur == '>') {
-      ++Cur;
-      return make(Tok::Arrow, Start);
-    }
-    return make(Tok::Minus, Start);
-  case '=':
-    if (Cur < End && *Cur == '=') {
-      ++Cur;
-      return make(Tok::EqEq, Start);
-    }
-    return error(Start, 1, "unexpected '='; did you mean '=='?");
-  default:
-    break;
+  case ';': return punct(Tok::Semi, 1);
+  case ',': return punct(Tok::Comma, 1);
+  case '(': return punct(Tok::LParen, 1);
+  case ')': return punct(Tok::RParen, 1);
+  case '[': return punct(Tok::LBracket, 1);
+  case ']': return punct(Tok::RBracket, 1);
+  case '{': return punct(Tok::LBrace, 1);
+  case '}': return punct(Tok::RBrace, 1);
+  case '+': return punct(Tok::Plus, 1);
+  case '*': return punct(Tok::Star, 1);
+  case '^': return punct(Tok::Caret, 1);
+  case '-': return P[1] == '>' ? punct(Tok::Arrow, 2) : punct(Tok::Minus, 1);
+  case '/': return P[1] == '/' ? lexAfterComments() : punct(Tok::Slash, 1);
+  default: return lexOther();
   }
-  unsigned char U = static_cast<unsigned char>(C);
+}
+
+/// Skips comments and the space between them, then lexes the token after
+/// them. That token does not start a comment, so lex() does not come back
+/// here: a file of many comment lines costs no stack.
+LLVM_ATTRIBUTE_NOINLINE Token Lexer::lexAfterComments() {
+  while (Cur[0] == '/' && Cur[1] == '/') {
+    const char *Start = Cur;
+    if (!skipComment())
+      return error(Start, 2, "comment holds invalid UTF-8 or a NUL byte");
+    while (isSpace(*Cur))
+      ++Cur;
+  }
+  return lex();
+}
+
+/// The end of the buffer, strings, '==' and every byte that is an error;
+/// kept out of lex() so that the common path stays small.
+LLVM_ATTRIBUTE_NOINLINE Token Lexer::lexOther() {
+  const char *Start = Cur;
+  unsigned char U = static_cast<unsigned char>(*Cur);
+  if (U == '\0' && Cur == End)
+    return make(Tok::Eof, Start);
+  if (U == '"')
+    return lexString(Start);
+  if (U == '=') {
+    if (Cur[1] == '=')
+      return punct(Tok::EqEq, 2);
+    return error(Start, 1, "unexpected '='; did you mean '=='?");
+  }
   if (U == 0)
     return error(Start, 1, "unexpected NUL byte");
   if (U >= 0x80)
@@ -178,65 +223,53 @@ Token Lexer::lex() {
   if (U < 0x20 || U == 0x7F)
     return error(Start, 1,
                  fmt::format("unexpected control byte 0x{:02X}", unsigned(U)));
-  return error(Start, 1, fmt::format("unexpected character '{}'", C));
+  return error(Start, 1, fmt::format("unexpected character '{}'", char(U)));
 }
 
-Token Lexer::lexIdentifier(const char *Start) {
-  while (Cur < End && isIdentBody(*Cur))
-    ++Cur;
-  llvm::StringRef Text(Start, size_t(Cur - Start));
-  Tok K = llvm::StringSwitch<Tok>(Text)
-              .Case("OPENQASM", Tok::KwOpenqasm)
-              .Case("include", Tok::KwInclude)
-              .Case("qreg", Tok::KwQreg)
-              .Case("creg", Tok::KwCreg)
-              .Case("gate", Tok::KwGate)
-              .Case("opaque", Tok::KwOpaque)
-              .Case("measure", Tok::KwMeasure)
-              .Case("reset", Tok::KwReset)
-              .Case("barrier", Tok::KwBarrier)
-              .Case("if", Tok::KwIf)
-              .Case("pi", Tok::KwPi)
-              .Case("U", Tok::KwU)
-              .Case("CX", Tok::KwCX)
-              .Default(Tok::Identifier);
-  return make(K, Start);
+// Names and numbers are most of the tokens, and a call costs about as much
+// as lexing a short one, so both are inlined into lex().
+LLVM_ATTRIBUTE_ALWAYS_INLINE Token Lexer::lexIdentifier(const char *Start) {
+  const char *P = Start + 1;
+  while (isIdentBody(*P))
+    ++P;
+  Cur = P;
+  llvm::StringRef Text(Start, size_t(P - Start));
+  return Token{keywordKind(Text), Text};
 }
 
 /// real ::= ([0-9]+ '.' [0-9]* | [0-9]* '.' [0-9]+) ([eE][-+]?[0-9]+)?
 ///        | [0-9]+ [eE][-+]?[0-9]+          (accepted: published files use it)
 /// nninteger ::= [1-9]+[0-9]* | 0
-Token Lexer::lexNumber(const char *Start) {
+LLVM_ATTRIBUTE_ALWAYS_INLINE Token Lexer::lexNumber(const char *Start) {
+  const char *P = Start;
+  while (isDigit(*P))
+    ++P;
   bool IsReal = false;
-  while (Cur < End && isDigit(*Cur))
-    ++Cur;
-  if (Cur < End && *Cur == '.') {
+  if (*P == '.') {
     IsReal = true;
-    ++Cur;
-    while (Cur < End && isDigit(*Cur))
-      ++Cur;
-  }
-  if (Cur < End && (*Cur == 'e' || *Cur == 'E')) {
-    const char *P = Cur + 1;
-    if (P < End && (*P == '+' || *P == '-'))
+    ++P;
+    while (isDigit(*P))
       ++P;
-    if (P < End && isDigit(*P)) {
-      IsReal = true;
-      Cur = P;
-      while (Cur < End && isDigit(*Cur))
-        ++Cur;
-    } else {
-      return error(Start, unsigned(P - Start),
-                   "expected digits after the exponent of a number");
-    }
   }
-  if (Cur < End && isIdentStart(*Cur))
-    return error(Start, unsigned(Cur - Start) + 1,
+  if (*P == 'e' || *P == 'E') {
+    const char *Digits = P + 1;
+    if (*Digits == '+' || *Digits == '-')
+      ++Digits;
+    if (!isDigit(*Digits))
+      return error(Start, unsigned(Digits - Start),
+                   "expected digits after the exponent of a number");
+    IsReal = true;
+    P = Digits;
+    while (isDigit(*P))
+      ++P;
+  }
+  Cur = P;
+  if (isIdentStart(*P))
+    return error(Start, unsigned(P - Start) + 1,
                  "a number runs into a name; put a space or an operator "
                  "between them");
-  if (!IsReal && Cur - Start > 1 && *Start == '0')
-    return error(Start, unsigned(Cur - Start),
-                 "an integer may not start with 0");
+  if (!IsReal && P - Start > 1 && *Start == '0')
+    return error(Start, unsigned(P - Start), "an integer may not start with 0");
   return make(IsReal ? Tok::Real : Tok::Integer, Start);
 }
 
@@ -251,13 +284,9 @@ Token Lexer::lexString(const char *Start) {
   }
   if (Cur >= End || *Cur != '"')
     return error(Start, 1, "unterminated string; expected a closing '\"'");
-  Token T;
-  T.Kind = Tok::String;
-  T.Text = llvm::StringRef(Body, size_t(Cur - Body));
-  T.Loc = llvm::SMLoc::getFromPointer(Start);
-  ++Cur;
-  T.End = Cur;
-  return T;
+  llvm::StringRef Text(Body, size_t(Cur - Body));
+  ++Cur; // closing quote
+  return Token{Tok::String, Text};
 }
 
 } // namespace revbound::qasm

@@ -13,6 +13,7 @@
 #include "llvm/ADT/ScopeExit.h"
 #include "llvm/ADT/StringSwitch.h"
 #include "llvm/Support/Allocator.h"
+#include "llvm/Support/Compiler.h"
 #include "llvm/Support/MemoryBuffer.h"
 
 #include <charconv>
@@ -44,7 +45,7 @@ public:
 private:
   // Token handling.
   void lex() {
-    PrevEnd = Cur.End;
+    PrevEnd = Cur.end();
     Cur = L->lex();
   }
   bool at(Tok K) const { return Cur.Kind == K; }
@@ -54,9 +55,21 @@ private:
     lex();
     return true;
   }
-  llvm::Error unexpected(const char *What);
-  llvm::Error expect(Tok K, const char *Context);
+  /// Consumes a `K`; otherwise the error saying what was expected.
+  llvm::Error expect(Tok K, const char *Context) {
+    if (eatIfPresent(K))
+      return llvm::Error::success();
+    return errorExpected(K, Context);
+  }
   llvm::Expected<Ident> expectIdent(const char *Context);
+
+  // Diagnostics about the current token. Out of line, so that the rules that
+  // call them on every line keep small frames.
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error unexpected(const char *What);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorExpected(Tok K, const char *Context);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorExpectedIdent(const char *Context);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorExpectedInteger(const char *Context);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorIntegerRange();
 
   // Grammar rules.
   llvm::Error parseHeader(bool IsMain);
@@ -79,13 +92,14 @@ private:
   Expr *newExpr(ExprKind K, const Token &At) {
     Expr *E = new (Arena.Allocate<Expr>()) Expr();
     E->Kind = K;
-    E->Loc = At.Loc;
+    E->Loc = At.loc();
     E->Length = At.length();
     return E;
   }
   llvm::Error emit() {
     llvm::Error E = Sink.onStatement(Stmt);
-    Arena.Reset();
+    if (Arena.getBytesAllocated() != 0) // most statements have no expression
+      Arena.Reset();
     return E;
   }
 
@@ -107,36 +121,38 @@ private:
 
 llvm::Error Parser::unexpected(const char *What) {
   if (at(Tok::Error))
-    return errorAt(Cur.Loc, L->errorMessage(), Cur.length());
-  return errorAt(Cur.Loc, fmt::format("expected {}, got {}", What, describe(Cur)),
+    return errorAt(Cur.loc(), L->errorMessage(), Cur.length());
+  return errorAt(Cur.loc(),
+                 fmt::format("expected {}, got {}", What, describe(Cur)),
                  Cur.length());
 }
 
-llvm::Error Parser::expect(Tok K, const char *Context) {
-  if (eatIfPresent(K))
-    return llvm::Error::success();
+llvm::Error Parser::errorExpected(Tok K, const char *Context) {
   if (at(Tok::Error))
     return unexpected("");
   // A missing ';' belongs to the line it should end, as in clang.
   if (K == Tok::Semi && PrevEnd)
     return errorAt(llvm::SMLoc::getFromPointer(PrevEnd),
                    fmt::format("expected ';' {}", Context));
-  return errorAt(Cur.Loc,
+  return errorAt(Cur.loc(),
                  fmt::format("expected {} {}, got {}", tokenName(K), Context,
                              describe(Cur)),
                  Cur.length());
 }
 
+llvm::Error Parser::errorExpectedIdent(const char *Context) {
+  if (at(Tok::Error))
+    return unexpected("");
+  return errorAt(
+      Cur.loc(),
+      fmt::format("expected a name {}, got {}", Context, describe(Cur)),
+      Cur.length());
+}
+
 llvm::Expected<Ident> Parser::expectIdent(const char *Context) {
-  if (!at(Tok::Identifier)) {
-    if (at(Tok::Error))
-      return unexpected("");
-    return errorAt(Cur.Loc,
-                   fmt::format("expected a name {}, got {}", Context,
-                               describe(Cur)),
-                   Cur.length());
-  }
-  Ident I{Cur.Text, Cur.Loc};
+  if (!at(Tok::Identifier))
+    return errorExpectedIdent(Context);
+  Ident I{Cur.Text, Cur.loc()};
   lex();
   return I;
 }
@@ -166,16 +182,18 @@ llvm::Error Parser::parseFile(unsigned BufferId, bool IsMain, bool IsLibrary,
 llvm::Error Parser::parseHeader(bool IsMain) {
   if (!at(Tok::KwOpenqasm)) {
     if (IsMain && !at(Tok::Error))
-      Warnings.warn(Cur.Loc, "missing 'OPENQASM 2.0;' header; reading the file "
-                             "as OpenQASM 2.0", Cur.length());
+      Warnings.warn(Cur.loc(),
+                    "missing 'OPENQASM 2.0;' header; reading the file "
+                    "as OpenQASM 2.0",
+                    Cur.length());
     return llvm::Error::success();
   }
-  llvm::SMLoc HeaderLoc = Cur.Loc;
+  llvm::SMLoc HeaderLoc = Cur.loc();
   lex();
   if (!at(Tok::Real) && !at(Tok::Integer))
     return unexpected("a version number after 'OPENQASM'");
   if (Cur.Text != "2.0" && Cur.Text != "2")
-    return errorAt(Cur.Loc,
+    return errorAt(Cur.loc(),
                    fmt::format("unsupported OpenQASM version '{}'; revbound "
                                "reads OpenQASM 2.0",
                                Cur.Text.str()),
@@ -200,7 +218,7 @@ llvm::Error Parser::parseStatement(unsigned Depth) {
   case Tok::KwIf:
     return parseIf();
   case Tok::KwOpenqasm:
-    return errorAt(Cur.Loc, "the 'OPENQASM' header may only open a file",
+    return errorAt(Cur.loc(), "the 'OPENQASM' header may only open a file",
                    Cur.length());
   case Tok::Identifier:
   case Tok::KwU:
@@ -249,7 +267,7 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
   if (llvm::Error E = expect(Tok::Semi, "after the include file name"))
     return E;
   if (Depth + 1 > Opts.MaxIncludeDepth)
-    return errorAt(NameTok.Loc,
+    return errorAt(NameTok.loc(),
                    fmt::format("includes nest deeper than {} files "
                                "(--max-include-depth)",
                                Opts.MaxIncludeDepth),
@@ -257,8 +275,9 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
   unsigned Id;
   bool IsLibrary = NameTok.Text == "qelib1.inc";
   if (IsLibrary && LibraryIncluded) {
-    Warnings.warn(NameTok.Loc, "'qelib1.inc' is included again; the second "
-                               "include is ignored",
+    Warnings.warn(NameTok.loc(),
+                  "'qelib1.inc' is included again; the second "
+                  "include is ignored",
                   NameTok.length() + 2);
     return llvm::Error::success();
   }
@@ -267,14 +286,14 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
     Id = Files.addBuffer(BuiltinLibraryName, builtinLibraryText());
   } else if (IsLibrary) {
     llvm::Expected<unsigned> Loaded =
-        Files.loadNamed(Opts.StandardLibraryPath, NameTok.Loc,
+        Files.loadNamed(Opts.StandardLibraryPath, NameTok.loc(),
                         NameTok.length() + 2);
     if (!Loaded)
       return Loaded.takeError();
     Id = *Loaded;
   } else {
     llvm::Expected<unsigned> Loaded =
-        Files.loadInclude(NameTok.Text, NameTok.Loc, NameTok.length() + 2);
+        Files.loadInclude(NameTok.Text, NameTok.loc(), NameTok.length() + 2);
     if (!Loaded)
       return Loaded.takeError();
     Id = *Loaded;
@@ -283,7 +302,7 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
   if (!Canon.empty()) {
     for (const std::string &Open : IncludeStack)
       if (Open == Canon)
-        return errorAt(NameTok.Loc,
+        return errorAt(NameTok.loc(),
                        fmt::format("include cycle: '{}' is already being "
                                    "read further up the include chain",
                                    NameTok.Text.str()),
@@ -300,7 +319,7 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
 ///   decl ::= ('qreg' | 'creg') id '[' nninteger ']' ';'
 llvm::Error Parser::parseRegisterDecl(StmtKind Kind) {
   Stmt.Kind = Kind;
-  Stmt.Loc = Cur.Loc;
+  Stmt.Loc = Cur.loc();
   Stmt.HasCondition = false;
   lex();
   llvm::Expected<Ident> Name = expectIdent(Kind == StmtKind::QReg
@@ -311,7 +330,7 @@ llvm::Error Parser::parseRegisterDecl(StmtKind Kind) {
   Stmt.RegName = *Name;
   if (llvm::Error E = expect(Tok::LBracket, "after the register name"))
     return E;
-  Stmt.RegSizeLoc = Cur.Loc;
+  Stmt.RegSizeLoc = Cur.loc();
   Stmt.RegSizeLength = Cur.length();
   llvm::Expected<uint64_t> Size = parseInteger("for the register size");
   if (!Size)
@@ -324,22 +343,31 @@ llvm::Error Parser::parseRegisterDecl(StmtKind Kind) {
   return emit();
 }
 
+llvm::Error Parser::errorExpectedInteger(const char *Context) {
+  if (at(Tok::Error))
+    return unexpected("");
+  return errorAt(Cur.loc(),
+                 fmt::format("expected a non-negative integer {}, got {}",
+                             Context, describe(Cur)),
+                 Cur.length());
+}
+
+llvm::Error Parser::errorIntegerRange() {
+  return errorAt(Cur.loc(),
+                 fmt::format("integer '{}' is out of range (at most {})",
+                             Cur.Text.str(), UINT64_MAX),
+                 Cur.length());
+}
+
 llvm::Expected<uint64_t> Parser::parseInteger(const char *Context) {
-  if (!at(Tok::Integer)) {
-    if (at(Tok::Error))
-      return unexpected("");
-    return errorAt(Cur.Loc,
-                   fmt::format("expected a non-negative integer {}, got {}",
-                               Context, describe(Cur)),
-                   Cur.length());
-  }
+  if (!at(Tok::Integer))
+    return errorExpectedInteger(Context);
+  // The lexer lets only digits through, so overflow is all that can fail.
   uint64_t V = 0;
-  auto [Ptr, Ec] = std::from_chars(Cur.Text.begin(), Cur.Text.end(), V);
-  if (Ec != std::errc() || Ptr != Cur.Text.end())
-    return errorAt(Cur.Loc,
-                   fmt::format("integer '{}' is out of range (at most {})",
-                               Cur.Text.str(), UINT64_MAX),
-                   Cur.length());
+  for (char Digit : Cur.Text)
+    if (__builtin_mul_overflow(V, 10, &V) ||
+        __builtin_add_overflow(V, uint64_t(Digit - '0'), &V))
+      return errorIntegerRange();
   lex();
   return V;
 }
@@ -348,7 +376,7 @@ llvm::Expected<uint64_t> Parser::parseInteger(const char *Context) {
 ///   opaque   ::= 'opaque' id ('(' idlist? ')')? idlist ';'
 llvm::Error Parser::parseGateDecl(bool Opaque) {
   Stmt.Kind = StmtKind::GateDecl;
-  Stmt.Loc = Cur.Loc;
+  Stmt.Loc = Cur.loc();
   Stmt.HasCondition = false;
   lex();
   GateDecl Decl;
@@ -356,7 +384,7 @@ llvm::Error Parser::parseGateDecl(bool Opaque) {
   D->Opaque = Opaque;
   D->FromStandardLibrary = InLibrary;
   if (at(Tok::KwU) || at(Tok::KwCX))
-    return errorAt(Cur.Loc,
+    return errorAt(Cur.loc(),
                    fmt::format("cannot redefine the built-in gate '{}'",
                                Cur.Text.str()),
                    Cur.length());
@@ -395,15 +423,16 @@ llvm::Error Parser::parseGateDecl(bool Opaque) {
 
 ///   goplist ::= (uop | 'barrier' idlist ';')*
 llvm::Error Parser::parseGateBody(GateDecl &D) {
-  llvm::SMLoc Open = Cur.Loc;
+  llvm::SMLoc Open = Cur.loc();
   if (llvm::Error E = expect(Tok::LBrace, "to open the gate body"))
     return E;
   while (!at(Tok::RBrace)) {
     BodyStatement B;
-    B.Loc = Cur.Loc;
+    B.Loc = Cur.loc();
     switch (Cur.Kind) {
     case Tok::Eof: {
-      llvm::Error E = errorAt(Cur.Loc, "unterminated gate body; expected '}'");
+      llvm::Error E =
+          errorAt(Cur.loc(), "unterminated gate body; expected '}'");
       Diagnostic Note;
       Note.Sev = Severity::Note;
       Note.Loc = Open;
@@ -419,10 +448,9 @@ llvm::Error Parser::parseGateBody(GateDecl &D) {
       B.IsBarrier = true;
       lex();
       do {
-        Operand O;
-        if (llvm::Error E = parseOperand(O, /*AllowIndex=*/false))
+        if (llvm::Error E =
+                parseOperand(B.Call.Args.emplace_back(), /*AllowIndex=*/false))
           return E;
-        B.Call.Args.push_back(O);
       } while (eatIfPresent(Tok::Comma));
       if (llvm::Error E = expect(Tok::Semi, "after the barrier"))
         return E;
@@ -441,7 +469,7 @@ llvm::Error Parser::parseGateBody(GateDecl &D) {
     case Tok::KwQreg:
     case Tok::KwCreg:
     case Tok::KwInclude:
-      return errorAt(Cur.Loc,
+      return errorAt(Cur.loc(),
                      fmt::format("{} is not allowed inside a gate body; a gate "
                                  "body holds only gate calls and barriers",
                                  tokenName(Cur.Kind)),
@@ -458,7 +486,7 @@ llvm::Error Parser::parseGateBody(GateDecl &D) {
 ///   qop ::= uop | 'measure' argument '->' argument ';' | 'reset' argument ';'
 ///         | 'barrier' anylist ';'
 llvm::Error Parser::parseQuantumOp(Statement &S) {
-  S.Loc = Cur.Loc;
+  S.Loc = Cur.loc();
   switch (Cur.Kind) {
   case Tok::KwMeasure:
     S.Kind = StmtKind::Measure;
@@ -481,10 +509,8 @@ llvm::Error Parser::parseQuantumOp(Statement &S) {
     S.Barrier.clear();
     lex();
     do {
-      Operand O;
-      if (llvm::Error E = parseOperand(O, true))
+      if (llvm::Error E = parseOperand(S.Barrier.emplace_back(), true))
         return E;
-      S.Barrier.push_back(O);
     } while (eatIfPresent(Tok::Comma));
     return expect(Tok::Semi, "after the barrier");
   case Tok::Identifier:
@@ -500,7 +526,7 @@ llvm::Error Parser::parseQuantumOp(Statement &S) {
 ///   uop ::= 'U' '(' explist ')' argument ';' | 'CX' argument ',' argument ';'
 ///         | id anylist ';' | id '(' explist? ')' anylist ';'
 llvm::Error Parser::parseGateCall(GateCall &C, bool AllowIndex) {
-  C.Gate = Ident{Cur.Text, Cur.Loc};
+  C.Gate = Ident{Cur.Text, Cur.loc()};
   C.Params.clear();
   C.Args.clear();
   lex();
@@ -517,30 +543,29 @@ llvm::Error Parser::parseGateCall(GateCall &C, bool AllowIndex) {
       return E;
   }
   do {
-    Operand O;
-    if (llvm::Error E = parseOperand(O, AllowIndex))
+    if (llvm::Error E = parseOperand(C.Args.emplace_back(), AllowIndex))
       return E;
-    C.Args.push_back(O);
   } while (eatIfPresent(Tok::Comma));
   return expect(Tok::Semi, "after the gate call");
 }
 
 ///   argument ::= id | id '[' nninteger ']'
 llvm::Error Parser::parseOperand(Operand &O, bool AllowIndex) {
-  llvm::Expected<Ident> Name = expectIdent("for a qubit or bit");
-  if (!Name)
-    return Name.takeError();
-  O.Reg = *Name;
+  if (!at(Tok::Identifier))
+    return errorExpectedIdent("for a qubit or bit");
+  O.Reg = Ident{Cur.Text, Cur.loc()};
   O.HasIndex = false;
+  lex();
   if (!at(Tok::LBracket))
     return llvm::Error::success();
   if (!AllowIndex)
-    return errorAt(Cur.Loc, "gate body arguments are names of the gate's "
-                            "qubits and cannot be indexed",
+    return errorAt(Cur.loc(),
+                   "gate body arguments are names of the gate's "
+                   "qubits and cannot be indexed",
                    1);
   lex();
   O.HasIndex = true;
-  O.IndexLoc = Cur.Loc;
+  O.IndexLoc = Cur.loc();
   O.IndexLength = Cur.length();
   llvm::Expected<uint64_t> Index = parseInteger("for the index");
   if (!Index)
@@ -551,7 +576,7 @@ llvm::Error Parser::parseOperand(Operand &O, bool AllowIndex) {
 
 ///   if ::= 'if' '(' id '==' nninteger ')' qop
 llvm::Error Parser::parseIf() {
-  llvm::SMLoc IfLoc = Cur.Loc;
+  llvm::SMLoc IfLoc = Cur.loc();
   lex();
   if (llvm::Error E = expect(Tok::LParen, "after 'if'"))
     return E;
@@ -559,15 +584,16 @@ llvm::Error Parser::parseIf() {
   if (!Reg)
     return Reg.takeError();
   if (at(Tok::LBracket))
-    return errorAt(Cur.Loc, "'if' compares a whole classical register; "
-                            "single bits cannot be tested in OpenQASM 2.0",
+    return errorAt(Cur.loc(),
+                   "'if' compares a whole classical register; "
+                   "single bits cannot be tested in OpenQASM 2.0",
                    1);
   if (llvm::Error E = expect(Tok::EqEq, "after the register in 'if'"))
     return E;
   if (!at(Tok::Integer))
     return unexpected("a non-negative integer to compare with");
   Stmt.CondValue = Cur.Text;
-  Stmt.CondValueLoc = Cur.Loc;
+  Stmt.CondValueLoc = Cur.loc();
   lex();
   if (llvm::Error E = expect(Tok::RParen, "after the condition"))
     return E;
@@ -627,7 +653,7 @@ llvm::Expected<const Expr *> Parser::parseUnary() {
   // Each nesting level is a few stack frames; bound it so that hostile input
   // cannot overflow the stack.
   if (++ExprDepth > MaxExprDepth)
-    return errorAt(Cur.Loc,
+    return errorAt(Cur.loc(),
                    fmt::format("expression nests deeper than {} levels",
                                MaxExprDepth),
                    Cur.length());
@@ -672,7 +698,7 @@ llvm::Expected<const Expr *> Parser::parsePrimary() {
       Ec = std::errc();
     }
     if (Ec != std::errc() || Ptr != Cur.Text.end())
-      return errorAt(Cur.Loc,
+      return errorAt(Cur.loc(),
                      fmt::format("number '{}' is out of the range of a double",
                                  Cur.Text.str()),
                      Cur.length());
@@ -710,7 +736,7 @@ llvm::Expected<const Expr *> Parser::parsePrimary() {
                                     .Case("sqrt", MathFunc::Sqrt)
                                     .Default(std::nullopt);
     if (!F)
-      return errorAt(NameTok.Loc,
+      return errorAt(NameTok.loc(),
                      fmt::format("unknown function '{}'; expected one of sin, "
                                  "cos, tan, exp, ln, sqrt",
                                  NameTok.Text.str()),

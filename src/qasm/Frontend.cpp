@@ -432,8 +432,9 @@ llvm::Error Elaborator::compileBody(const GateDecl &D, ir::GateDef &G) {
     G.Body.push_back(std::move(Op));
   }
   G.NestingLevel = Level + 1;
-  // The library's own depth (cswap is 4 levels) is not the file's doing.
-  if (G.NestingLevel > Limits.MaxNesting && !D.FromStandardLibrary)
+  // The built-in library's own depth (cswap is 4 levels) is not the file's
+  // doing; a --stdlib file is input like any other and gets the limit.
+  if (G.NestingLevel > Limits.MaxNesting && !D.FromBuiltinLibrary)
     return errorAt(D.Name.Loc,
                    fmt::format("gate '{}' nests {} levels of definitions, over "
                                "the limit of {} (--max-nesting)",

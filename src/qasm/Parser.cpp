@@ -383,6 +383,7 @@ llvm::Error Parser::parseGateDecl(bool Opaque) {
   GateDecl *D = &Decl;
   D->Opaque = Opaque;
   D->FromStandardLibrary = InLibrary;
+  D->FromBuiltinLibrary = InLibrary && Opts.StandardLibraryPath.empty();
   if (at(Tok::KwU) || at(Tok::KwCX))
     return errorAt(Cur.loc(),
                    fmt::format("cannot redefine the built-in gate '{}'",

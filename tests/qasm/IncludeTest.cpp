@@ -177,3 +177,21 @@ TEST_F(Includes, LibraryIncludedTwiceIsAWarning) {
             "include \"qelib1.inc\";\n"
             "        ^~~~~~~~~~~~\n");
 }
+
+// A --stdlib file is input like any other: its nesting is limited too
+// (found in review: a 50000-level library overflowed the stack).
+TEST_F(Includes, StandardLibraryReplacementHasTheNestingLimit) {
+  std::string Lib = "gate l0 a { U(0,0,0) a; }\n";
+  for (int I = 1; I <= 30; ++I)
+    Lib += "gate l" + std::to_string(I) + " a { l" + std::to_string(I - 1) + " a; }\n";
+  write(Root / "outside" / "deep.inc", Lib);
+  write(Root / "lib" / "main.qasm", "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n");
+  qasm::FrontendOptions Opts;
+  Opts.Parser.StandardLibraryPath = (Root / "outside" / "deep.inc").string();
+  Opts.Limits.MaxNesting = 10;
+  EXPECT_NE(run(Root / "lib" / "main.qasm", {}, Opts).find("--max-nesting"),
+            std::string::npos);
+  // The built-in library is exempt: even a limit of 1 reads qelib1.inc.
+  Opts.Parser.StandardLibraryPath.clear();
+  EXPECT_EQ(run(Root / "lib" / "main.qasm", {}, Opts), "");
+}

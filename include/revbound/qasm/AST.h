@@ -69,6 +69,7 @@ struct GateDecl {
   Ident Name;
   bool Opaque = false;
   bool FromStandardLibrary = false; // declared by the qelib1.inc in use
+  bool FromBuiltinLibrary = false;  // ... and that is the built-in one
   llvm::SmallVector<Ident, 4> Params;
   llvm::SmallVector<Ident, 4> Qubits;
   std::vector<BodyStatement> Body;

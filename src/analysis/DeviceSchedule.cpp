@@ -172,18 +172,7 @@ llvm::Error Walker::run(double &Length) {
     if (!P)
       return P.takeError();
     countKinds(O.Gate, C.params(O));
-    In.assign(W.size(), 0.0);
-    for (unsigned I = 0; I < W.size(); ++I)
-      In[I] = Ready[W[I]];
-    for (unsigned J = 0; J < W.size(); ++J) {
-      double Best = 0;
-      for (unsigned I = 0; I < W.size(); ++I) {
-        double Dl = (*P)->at(I, J);
-        if (Dl != MaxPlusTraits<double>::none())
-          Best = std::max(Best, In[I] + Dl);
-      }
-      Ready[W[J]] = Best;
-    }
+    applyCall(Ready, W, **P, In);
   }
   Length = 0;
   for (double R : Ready)

@@ -56,11 +56,7 @@ private:
 
 const TimeSummary &SpeedAnalysis::summary(ir::GateId G,
                                           llvm::ArrayRef<double> Params) {
-  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
-  std::memcpy(Key.data(), &G, sizeof(G));
-  if (!Params.empty())
-    std::memcpy(Key.data() + sizeof(G), Params.data(),
-                Params.size() * sizeof(double));
+  std::string Key = ir::callKey(G, Params);
   auto It = Memo.find(Key);
   if (It != Memo.end())
     return *It->second;
@@ -145,18 +141,7 @@ double walk(const ir::Circuit &C, SummaryCache &Cache,
       continue;
     }
     const TimeSummary &S = A.summary(O.Gate, C.params(O));
-    In.assign(W.size(), 0.0);
-    for (unsigned I = 0; I < W.size(); ++I)
-      In[I] = Ready[W[I]];
-    for (unsigned J = 0; J < W.size(); ++J) {
-      double Best = 0;
-      for (unsigned I = 0; I < W.size(); ++I) {
-        double D = S.Path.at(I, J);
-        if (D != MaxPlusTraits<double>::none())
-          Best = std::max(Best, In[I] + D);
-      }
-      Ready[W[J]] = Best;
-    }
+    applyCall(Ready, W, S.Path, In);
     if (Out) {
       Out->Steps += S.Steps;
       Out->OrthogonalSteps += S.Orthogonal;

@@ -140,11 +140,7 @@ SummaryCache::get(ir::GateId G, llvm::ArrayRef<double> Params, llvm::SMLoc Loc) 
     }
     return ById[G].get();
   }
-  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
-  std::memcpy(Key.data(), &G, sizeof(G));
-  if (!Params.empty())
-    std::memcpy(Key.data() + sizeof(G), Params.data(),
-                Params.size() * sizeof(double));
+  std::string Key = ir::callKey(G, Params);
   auto It = ByParams.find(Key);
   if (It != ByParams.end())
     return It->second.get();

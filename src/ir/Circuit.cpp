@@ -1,6 +1,7 @@
 //===- Circuit.cpp - The hierarchical circuit IR -------------------------===//
 #include "revbound/ir/Circuit.h"
 
+#include <cstring>
 #include <fmt/format.h>
 
 namespace revbound::ir {
@@ -27,6 +28,15 @@ static std::string wireName(const std::vector<Register> &Regs, uint32_t W) {
     if (W >= R.Offset && W < R.Offset + R.Size)
       return fmt::format("{}[{}]", R.Name, W - R.Offset);
   return fmt::format("?[{}]", W);
+}
+
+std::string callKey(GateId G, llvm::ArrayRef<double> Params) {
+  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
+  std::memcpy(Key.data(), &G, sizeof(G));
+  if (!Params.empty())
+    std::memcpy(Key.data() + sizeof(G), Params.data(),
+                Params.size() * sizeof(double));
+  return Key;
 }
 
 std::string Circuit::qubitName(uint32_t Q) const { return wireName(QRegs, Q); }

@@ -161,11 +161,7 @@ const LeafCost &GateCostModel::cost(ir::GateId G, llvm::ArrayRef<double> Params)
       Scratch = costOfAngle(*Angle);
       return Scratch;
     }
-  std::string Key(sizeof(G) + Params.size() * sizeof(double), '\0');
-  std::memcpy(Key.data(), &G, sizeof(G));
-  if (!Params.empty())
-    std::memcpy(Key.data() + sizeof(G), Params.data(),
-                Params.size() * sizeof(double));
+  std::string Key = ir::callKey(G, Params);
   auto It = ByCall.find(Key);
   if (It != ByCall.end())
     return It->second;

@@ -12,6 +12,7 @@
 #define REVBOUND_ANALYSIS_MAXPLUS_H
 
 #include "llvm/ADT/ArrayRef.h"
+#include "llvm/ADT/SmallVector.h"
 
 #include <algorithm>
 #include <cstdint>
@@ -54,6 +55,26 @@ private:
   unsigned N = 0;
   std::vector<T> D;
 };
+
+/// Applies a call summarised by `D` to concrete ready times: for each of the
+/// call's wires W[j], Ready'[W[j]] = max_i(Ready[W[i]] + D[i][j]). For
+/// double weights, where sums cannot overflow.
+inline void applyCall(std::vector<double> &Ready, llvm::ArrayRef<uint32_t> W,
+                      const MaxPlusMatrix<double> &D,
+                      llvm::SmallVectorImpl<double> &Scratch) {
+  Scratch.assign(W.begin(), W.end());
+  for (unsigned I = 0; I < W.size(); ++I)
+    Scratch[I] = Ready[W[I]];
+  for (unsigned J = 0; J < W.size(); ++J) {
+    double Best = 0;
+    for (unsigned I = 0; I < W.size(); ++I) {
+      double Dl = D.at(I, J);
+      if (Dl != MaxPlusTraits<double>::none())
+        Best = std::max(Best, Scratch[I] + Dl);
+    }
+    Ready[W[J]] = Best;
+  }
+}
 
 /// The symbolic state of a K-wire body. With `TrackUses`, it also records,
 /// per wire, the paths to the start of its first leaf and the end of its

@@ -101,6 +101,10 @@ struct Op {
   llvm::SMLoc Loc;
 };
 
+/// A map key for a call of gate `G` with parameter values `Params`: their
+/// bytes, so that equal calls (to the bit) share one memo entry.
+std::string callKey(GateId G, llvm::ArrayRef<double> Params);
+
 class Circuit {
 public:
   Circuit();

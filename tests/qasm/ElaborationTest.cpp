@@ -113,3 +113,14 @@ TEST(Elaboration, OpLimit) {
             "U(0,0,0) q;\n"
             "^\n");
 }
+
+// Checks that a library gate replaced after use takes effect from the
+// replacement on (the name caches must not keep the old definition).
+TEST(Elaboration, LibraryGateReplacedAfterUse) {
+  test::Elaborated E = elaborate("OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg q[1];\n"
+                                 "h q[0];\ngate h a { U(0,0,0) a; }\nh q[0];\n");
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  EXPECT_EQ(E.Circuit->gate(E.Circuit->Ops[0].Gate).Origin,
+            ir::GateOrigin::StandardLibrary);
+  EXPECT_EQ(E.Circuit->gate(E.Circuit->Ops[1].Gate).Origin, ir::GateOrigin::User);
+}

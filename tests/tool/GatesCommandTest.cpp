@@ -9,6 +9,8 @@
 // to 6 CX and 9 U in the standard's qelib1.inc (arXiv:1707.03429).
 //
 //===----------------------------------------------------------------------===//
+#include "ToolRunner.h"
+
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
@@ -25,50 +27,11 @@ using std::numbers::pi;
 
 namespace {
 
-struct Outcome {
-  int Exit = -1;
-  std::string Out, Err;
-};
+using revbound::test::Outcome;
+using revbound::test::slurp;
 
-std::string slurp(const fs::path &P) {
-  std::ifstream In(P, std::ios::binary);
-  std::stringstream S;
-  S << In.rdbuf();
-  return S.str();
-}
-
-class GatesCommand : public ::testing::Test {
+class GatesCommand : public revbound::test::ToolTest {
 protected:
-  void SetUp() override {
-    Dir = fs::temp_directory_path() /
-          ("revbound-gates-" + std::to_string(::getpid()) + "-" +
-           ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(Dir);
-    fs::create_directories(Dir);
-  }
-  void TearDown() override { fs::remove_all(Dir); }
-
-  fs::path write(const std::string &Name, const std::string &Text) {
-    fs::path P = Dir / Name;
-    std::ofstream(P, std::ios::binary) << Text;
-    return P;
-  }
-
-  /// Runs revbound with `Args` (a shell fragment) in Dir.
-  Outcome invoke(const std::string &Args, const std::string &Stdin = "") {
-    fs::path In = write("stdin.txt", Stdin);
-    std::string Cmd = "cd '" + Dir.string() + "' && '" REVBOUND_BINARY "' " +
-                      Args + " <'" + In.string() + "' >'" +
-                      (Dir / "out.txt").string() + "' 2>'" +
-                      (Dir / "err.txt").string() + "'";
-    int Status = std::system(Cmd.c_str());
-    Outcome R;
-    R.Exit = WIFEXITED(Status) ? WEXITSTATUS(Status) : -1;
-    R.Out = slurp(Dir / "out.txt");
-    R.Err = slurp(Dir / "err.txt");
-    return R;
-  }
-
   /// Runs with `Args` and parses standard output as JSON; fails on exit != 0.
   nlohmann::json json(const std::string &Args, const std::string &Stdin = "") {
     Outcome R = invoke(Args, Stdin);
@@ -77,8 +40,6 @@ protected:
       return nullptr;
     return nlohmann::json::parse(R.Out);
   }
-
-  fs::path Dir;
 };
 
 /// The row of `J` named `Name` with origin `Origin` (null if none).

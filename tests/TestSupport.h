@@ -35,9 +35,12 @@ inline Elaborated elaborate(const std::string &Text,
   for (const Diagnostic &W : Warnings.warnings())
     E.Warnings.push_back(formatDiagnostic(E.Files->mgr(), W));
   if (!C) {
-    llvm::handleAllErrors(C.takeError(), [&](const DiagnosticError &D) {
-      E.Error = formatDiagnostic(E.Files->mgr(), D.diagnostic());
-    });
+    llvm::handleAllErrors(
+        C.takeError(),
+        [&](const DiagnosticError &D) {
+          E.Error = formatDiagnostic(E.Files->mgr(), D.diagnostic());
+        },
+        [&](const llvm::ErrorInfoBase &Other) { E.Error = Other.message(); });
     return E;
   }
   E.Circuit = std::move(*C);

@@ -39,6 +39,28 @@ std::string callKey(GateId G, llvm::ArrayRef<double> Params) {
   return Key;
 }
 
+const char *wireRoleName(WireRole R) {
+  switch (R) {
+  case WireRole::Output:
+    return "output";
+  case WireRole::Input:
+    return "input";
+  case WireRole::Ancilla:
+    return "ancilla";
+  case WireRole::Garbage:
+    return "garbage";
+  }
+  return "output";
+}
+
+std::optional<WireRole> parseWireRole(llvm::StringRef Name) {
+  for (WireRole R : {WireRole::Output, WireRole::Input, WireRole::Ancilla,
+                     WireRole::Garbage})
+    if (Name == wireRoleName(R))
+      return R;
+  return std::nullopt;
+}
+
 std::string Circuit::qubitName(uint32_t Q) const { return wireName(QRegs, Q); }
 std::string Circuit::clbitName(uint32_t C) const { return wireName(CRegs, C); }
 

@@ -8,6 +8,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "revbound/qasm/Frontend.h"
+#include "revbound/qasm/Roles.h"
 
 #include "llvm/ADT/SmallSet.h"
 #include "llvm/Support/Compiler.h"
@@ -743,9 +744,14 @@ llvm::Expected<ir::Circuit> buildCircuit(SourceFiles &Files, unsigned BufferId,
                                          DiagnosticSink &Warnings) {
   Elaborator E(Opts.Limits, Warnings);
   E.reserveFor(Files.mgr().getMemoryBuffer(BufferId)->getBuffer());
-  if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings))
+  std::vector<llvm::StringRef> Annotations;
+  if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings,
+                                     &Annotations))
     return std::move(Err);
-  return E.take();
+  ir::Circuit C = E.take();
+  if (llvm::Error Err = assignRoles(C, Annotations, Opts.Roles))
+    return std::move(Err);
+  return C;
 }
 
 } // namespace revbound::qasm

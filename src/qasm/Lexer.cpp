@@ -193,6 +193,8 @@ LLVM_ATTRIBUTE_NOINLINE Token Lexer::lexAfterComments() {
     const char *Start = Cur;
     if (!skipComment())
       return error(Start, 2, "comment holds invalid UTF-8 or a NUL byte");
+    if (Annotations && Start[2] == '!')
+      Annotations->push_back(llvm::StringRef(Start, size_t(Cur - Start)));
     while (isSpace(*Cur))
       ++Cur;
   }

@@ -35,6 +35,9 @@ namespace {
 
 class Parser {
 public:
+  /// Where the lexers put `//!` comments (none when null).
+  std::vector<llvm::StringRef> *Annotations = nullptr;
+
   Parser(SourceFiles &Files, const ParserOptions &Opts, StatementSink &Sink,
          DiagnosticSink &Warnings)
       : Files(Files), Opts(Opts), Sink(Sink), Warnings(Warnings) {}
@@ -166,6 +169,7 @@ llvm::Error Parser::parseFile(unsigned BufferId, bool IsMain, bool IsLibrary,
   PrevEnd = nullptr;
   bool SavedLib = InLibrary;
   L = &Lex;
+  Lex.collectAnnotations(Annotations);
   InLibrary = IsLibrary;
   lex();
   llvm::Error Err = parseHeader(IsMain);
@@ -762,8 +766,10 @@ llvm::Expected<const Expr *> Parser::parsePrimary() {
 
 llvm::Error parseProgram(SourceFiles &Files, unsigned BufferId,
                          const ParserOptions &Opts, StatementSink &Sink,
-                         DiagnosticSink &Warnings) {
+                         DiagnosticSink &Warnings,
+                         std::vector<llvm::StringRef> *Annotations) {
   Parser P(Files, Opts, Sink, Warnings);
+  P.Annotations = Annotations;
   return P.parseFile(BufferId, /*IsMain=*/true, /*IsLibrary=*/false, 0);
 }
 

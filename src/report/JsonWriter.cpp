@@ -26,6 +26,53 @@ static Json point(const SourcePoint &P) {
   return J;
 }
 
+static Json interval(const semantics::BitInterval &I) {
+  return {{"low", I.Low}, {"high", I.High}, {"exact", I.Exact}};
+}
+
+/// DESIGN.md's `erasures`, `ancillas` and `landauer` members.
+static void erasuresJson(const ErasureReport &E, Json &J) {
+  Json List = Json::array();
+  for (const ErasureEntry &X : E.List) {
+    Json Item = {{"kind", X.Kind},     {"wire", X.Wire},
+                 {"file", X.At.File},  {"line", X.At.Line},
+                 {"column", X.At.Column}, {"bits_low", X.BitsLow},
+                 {"bits_high", X.BitsHigh}, {"status", X.Status}};
+    if (X.Samples)
+      Item["sampled"] = {{"samples", X.Samples},
+                         {"estimate_bits", X.BitsEstimate}};
+    List.push_back(std::move(Item));
+  }
+  J["erasures"] = {{"engine", E.Engine},
+                   {"reason", E.Reason},
+                   {"events", E.Events},
+                   {"entropy_bits", interval(E.Entropy)},
+                   {"discard_joint_bits", interval(E.DiscardJoint)},
+                   {"list", std::move(List)},
+                   {"notes", E.Notes}};
+  Json Ancillas = Json::array();
+  for (const AncillaEntry &A : E.Ancillas) {
+    Json Item = {{"wire", A.Wire},
+                 {"clean", A.Clean ? Json(*A.Clean) : Json(nullptr)}};
+    Json Counter = nullptr;
+    if (A.HasCounterexample) {
+      Counter = Json::object();
+      for (const auto &[Register, Bits] : A.Counterexample)
+        Counter[Register] = Bits;
+    }
+    Item["counterexample"] = std::move(Counter);
+    if (A.DirtyProbability)
+      Item["dirty_probability"] = *A.DirtyProbability;
+    if (A.Samples)
+      Item["sampled"] = {{"samples", A.Samples},
+                         {"dirty_samples", A.DirtySamples}};
+    Ancillas.push_back(std::move(Item));
+  }
+  J["ancillas"] = std::move(Ancillas);
+  J["landauer"] = {{"temperature_K", E.TemperatureK},
+                   {"heat_J", {{"low", E.HeatLowJ}, {"high", E.HeatHighJ}}}};
+}
+
 static Json circuitJson(const CircuitReport &C) {
   Json J;
   J["file"] = C.File;
@@ -105,6 +152,7 @@ static Json circuitJson(const CircuitReport &C) {
                             {"bound_over_schedule", orNull(D.Ratio)},
                             {"gates", std::move(Kinds)}};
   }
+  erasuresJson(C.Erasures, J);
   Json Warnings = Json::array();
   for (const Finding &F : C.Warnings) {
     Json W = point(F.At);

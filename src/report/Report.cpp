@@ -2,6 +2,7 @@
 #include "revbound/report/Report.h"
 #include "revbound/analysis/LeafDag.h"
 #include "revbound/analysis/Schedule.h"
+#include "revbound/physics/Landauer.h"
 
 #include <algorithm>
 #include <fmt/format.h>
@@ -93,6 +94,69 @@ static llvm::Error fillPath(const ir::Circuit &C, const SourceFiles &Files,
   return llvm::Error::success();
 }
 
+/// The bit string of register `R` in a counterexample, highest index first.
+static std::string registerBits(const ir::Register &R,
+                                const std::vector<bool> &Value) {
+  std::string Bits(R.Size, '0');
+  for (uint32_t I = 0; I < R.Size; ++I)
+    if (Value[R.Offset + I])
+      Bits[R.Size - 1 - I] = '1';
+  return Bits;
+}
+
+static void fillErasures(const ir::Circuit &C, const SourceFiles &Files,
+                         const semantics::Ledger &L, double TemperatureK,
+                         ErasureReport &Out) {
+  Out.Engine = semantics::engineName(L.Engine);
+  Out.Reason = L.Reason;
+  Out.Notes = L.Notes;
+  semantics::LedgerTotals T = semantics::totals(L);
+  Out.Events = T.Events;
+  Out.Entropy = T.Entropy;
+  Out.DiscardJoint = L.DiscardJoint;
+  for (const semantics::ErasureEvent &E : L.Events) {
+    ErasureEntry X;
+    X.Kind = semantics::erasureKindName(E.Kind);
+    X.Wire = E.Kind == semantics::ErasureKind::Overwrite ? C.clbitName(E.Wire)
+                                                         : C.qubitName(E.Wire);
+    X.At = pointOf(Files, E.Loc);
+    X.Status = semantics::erasureStatusName(E.Status);
+    X.BitsLow = E.BitsLow;
+    X.BitsHigh = E.BitsHigh;
+    X.Samples = E.Samples;
+    X.BitsEstimate = E.BitsEstimate;
+    Out.List.push_back(std::move(X));
+  }
+  for (const semantics::AncillaVerdict &A : L.Ancillas) {
+    AncillaEntry X;
+    X.Wire = C.qubitName(A.Qubit);
+    X.Clean = A.Clean;
+    X.DirtyProbability = A.DirtyProbability;
+    X.Samples = A.Samples;
+    X.DirtySamples = A.DirtySamples;
+    X.HasCounterexample = A.HasCounterexample;
+    if (A.HasCounterexample) {
+      std::vector<bool> Value(C.NumQubits, false);
+      std::vector<bool> IsInput(C.NumQubits, false);
+      for (auto [Q, Bit] : A.Counterexample)
+        Value[Q] = Bit;
+      for (uint32_t Q = 0; Q < C.NumQubits; ++Q)
+        IsInput[Q] = C.role(Q) == ir::WireRole::Input;
+      for (const ir::Register &R : C.QRegs) {
+        bool AnyInput = false;
+        for (uint32_t I = 0; I < R.Size; ++I)
+          AnyInput |= IsInput[R.Offset + I];
+        if (AnyInput)
+          X.Counterexample.emplace_back(R.Name, registerBits(R, Value));
+      }
+    }
+    Out.Ancillas.push_back(std::move(X));
+  }
+  Out.TemperatureK = TemperatureK;
+  Out.HeatLowJ = physics::landauerHeat(Out.Entropy.Low, TemperatureK);
+  Out.HeatHighJ = physics::landauerHeat(Out.Entropy.High, TemperatureK);
+}
+
 llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
                                              const SourceFiles &Files,
                                              llvm::StringRef DisplayName,
@@ -142,6 +206,11 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
       return Device.takeError();
     R.Speed.Device = std::move(*Device);
   }
+  llvm::Expected<semantics::Ledger> Ledger =
+      semantics::runEngine(C, Opts.Engine);
+  if (!Ledger)
+    return Ledger.takeError();
+  fillErasures(C, Files, *Ledger, Opts.TemperatureK, R.Erasures);
   if (!R.Speed.Bounds.UnknownGates.empty()) {
     std::string Names;
     for (const std::string &N : R.Speed.Bounds.UnknownGates)

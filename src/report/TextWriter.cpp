@@ -75,6 +75,59 @@ static void writeSpeed(const CircuitReport &C, std::string &Out) {
            "--energy-per-qubit\n";
 }
 
+static std::string bits(double Low, double High) {
+  if (Low == High)
+    return fmt::format("{:.6g} bit{}", Low, Low == 1 ? "" : "s");
+  return fmt::format("{:.6g} to {:.6g} bits", Low, High);
+}
+
+static void writeErasures(const ErasureReport &E, std::string &Out) {
+  Out += fmt::format("  erasures     {} event{}, {}{}; engine {}\n", E.Events,
+                     E.Events == 1 ? "" : "s",
+                     bits(E.Entropy.Low, E.Entropy.High),
+                     E.Entropy.Exact ? " (exact)" : "", E.Engine);
+  Out += fmt::format("               {}\n", E.Reason);
+  for (const ErasureEntry &X : E.List) {
+    std::string Figure = X.Status == "constant"
+                             ? "0 bits (proved constant)"
+                             : bits(X.BitsLow, X.BitsHigh);
+    if (X.Samples)
+      Figure += fmt::format(", about {:.3g} from {} samples", X.BitsEstimate,
+                            X.Samples);
+    Out += fmt::format("               {}:{}:{} {} {}: {}\n", X.At.File,
+                       X.At.Line, X.At.Column, X.Kind, X.Wire, Figure);
+  }
+  if (E.DiscardJoint.High > 0 || !E.DiscardJoint.Exact)
+    Out += fmt::format("               discarded wires together: {}\n",
+                       bits(E.DiscardJoint.Low, E.DiscardJoint.High));
+  for (const std::string &N : E.Notes)
+    Out += fmt::format("               note: {}\n", N);
+  for (const AncillaEntry &A : E.Ancillas) {
+    std::string Verdict = !A.Clean ? "unknown" : *A.Clean ? "clean" : "dirty";
+    if (A.HasCounterexample) {
+      std::string Inputs;
+      for (const auto &[Register, Bits] : A.Counterexample)
+        Inputs += fmt::format("{}{}={}", Inputs.empty() ? "" : " ", Register,
+                              Bits);
+      Verdict += fmt::format(" (ends at 1 for input {})",
+                             Inputs.empty() ? "none" : Inputs);
+    }
+    if (A.DirtyProbability && !(A.Clean && *A.Clean))
+      Verdict += fmt::format(" (not |0> with probability {:.6g})",
+                             *A.DirtyProbability);
+    if (A.Samples && !A.Clean)
+      Verdict += fmt::format(" ({} of {} random inputs left it at 1)",
+                             A.DirtySamples, A.Samples);
+    Out += fmt::format("  ancilla      {} {}\n", A.Wire, Verdict);
+  }
+  Out += fmt::format("  landauer     heat >= {:.4g} J at {:.4g} K", E.HeatLowJ,
+                     E.TemperatureK);
+  if (E.HeatHighJ != E.HeatLowJ)
+    Out += fmt::format(" (up to {:.4g} J if every open bit is erased)",
+                       E.HeatHighJ);
+  Out += "\n";
+}
+
 static void writeCircuit(const CircuitReport &C, std::string &Out) {
   const analysis::Census &O = C.Ops;
   Out += fmt::format("== {}\n", C.File);
@@ -109,6 +162,7 @@ static void writeCircuit(const CircuitReport &C, std::string &Out) {
                          C.Path.Steps - 8);
   }
   writeSpeed(C, Out);
+  writeErasures(C.Erasures, Out);
   if (!C.Warnings.empty())
     Out += fmt::format("  warnings     {}\n", C.Warnings.size());
 }

@@ -34,11 +34,17 @@ struct InputOptions {
   std::string Energy, EnergyPerQubit, EnergySpread, TargetTime;
   std::vector<std::string> GateAngles; // NAME=EXPR
   std::string DurationsFile;
+  // Erasures and ancillas.
+  std::vector<std::string> Roles; // NAME=ROLE
+  std::string Engine = "auto";
+  std::string Temperature = "300K";
+  semantics::EngineOptions EngineLimits;
 };
 
 void addInputOptions(CLI::App &Cmd, InputOptions &O);
 SourceOptions sourceOptions(const InputOptions &O);
-qasm::FrontendOptions frontendOptions(const InputOptions &O);
+/// The front-end options; fails with a message on a bad --role.
+llvm::Expected<qasm::FrontendOptions> frontendOptions(const InputOptions &O);
 /// The analysis options; fails with a message on a bad quantity or angle.
 llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O);
 
@@ -60,6 +66,7 @@ struct Command {
 
 std::function<int()> setupReport(CLI::App &Cmd);
 std::function<int()> setupGates(CLI::App &Cmd);
+std::function<int()> setupCheck(CLI::App &Cmd);
 
 } // namespace revbound::tool
 

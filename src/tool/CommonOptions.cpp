@@ -63,6 +63,34 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
   Cmd.add_option("--max-dag-nodes", O.MaxDagNodes,
                  "largest leaf graph built for the critical path")
       ->capture_default_str();
+  Cmd.add_option("--role", O.Roles,
+                 "NAME=ROLE: the role of a register or qubit (input, ancilla, "
+                 "output, garbage); wins over the file's '//!' comments");
+  Cmd.add_option("--engine", O.Engine,
+                 "semantic engine for erasures and ancillas: auto, structural, "
+                 "classical or density")
+      ->check(CLI::IsMember({"auto", "structural", "classical", "density"}))
+      ->capture_default_str();
+  Cmd.add_option("--temperature", O.Temperature,
+                 "bath temperature for the Landauer heat (K, mK, uK)")
+      ->capture_default_str();
+  Cmd.add_option("--max-density-qubits", O.EngineLimits.MaxDensityQubits,
+                 "widest circuit the density engine simulates")
+      ->check(CLI::Range(1u, 14u))
+      ->capture_default_str();
+  Cmd.add_option("--max-bdd-nodes", O.EngineLimits.MaxBddNodes,
+                 "BDD nodes the classical engine may hold before it samples")
+      ->check(CLI::Range(uint64_t(1) << 10, uint64_t(1) << 26))
+      ->capture_default_str();
+  Cmd.add_option("--samples", O.EngineLimits.Samples,
+                 "random inputs when the classical engine falls back to "
+                 "sampling")
+      ->check(CLI::Range(uint64_t(64), uint64_t(1) << 24))
+      ->capture_default_str();
+  Cmd.add_option("--max-engine-ops", O.EngineLimits.MaxExpandedOps,
+                 "gate applications a semantic engine expands to; larger "
+                 "calls are over-approximated whole")
+      ->capture_default_str();
 }
 
 SourceOptions sourceOptions(const InputOptions &O) {
@@ -73,8 +101,14 @@ SourceOptions sourceOptions(const InputOptions &O) {
   return S;
 }
 
-qasm::FrontendOptions frontendOptions(const InputOptions &O) {
+llvm::Expected<qasm::FrontendOptions> frontendOptions(const InputOptions &O) {
   qasm::FrontendOptions F;
+  for (const std::string &Spec : O.Roles) {
+    llvm::Expected<qasm::RoleOption> R = qasm::parseRoleOption(Spec);
+    if (!R)
+      return R.takeError();
+    F.Roles.push_back(std::move(*R));
+  }
   F.Limits = O.Limits;
   F.Parser.MaxIncludeDepth = O.MaxIncludeDepth;
   // Named on the command line, so it is read wherever it is.
@@ -158,20 +192,35 @@ llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O) {
   for (const std::string &N : O.Native)
     A.Policy.NativeNames.insert(N);
   A.MaxDagNodes = O.MaxDagNodes;
+  A.Engine = O.EngineLimits;
+  A.Engine.Choice = *semantics::parseEngineChoice(O.Engine);
+  llvm::Expected<double> T = parseQuantity(O.Temperature, Dimension::Temperature);
+  if (!T)
+    return llvm::createStringError(llvm::inconvertibleErrorCode(),
+                                   "--temperature: %s",
+                                   llvm::toString(T.takeError()).c_str());
+  if (!(*T > 0))
+    return llvm::createStringError(llvm::inconvertibleErrorCode(),
+                                   "--temperature: must be above 0 K");
+  A.TemperatureK = *T;
   return A;
 }
 
 int analyzeAll(const InputOptions &O, report::Report &Out) {
-  qasm::FrontendOptions Front = frontendOptions(O);
+  llvm::Expected<qasm::FrontendOptions> FrontOrErr = frontendOptions(O);
   llvm::Expected<report::AnalysisOptions> AnalysisOrErr = analysisOptions(O);
-  if (!AnalysisOrErr) {
+  if (!FrontOrErr || !AnalysisOrErr) {
+    llvm::Error E = FrontOrErr ? AnalysisOrErr.takeError() : FrontOrErr.takeError();
+    if (!FrontOrErr && !AnalysisOrErr)
+      llvm::consumeError(AnalysisOrErr.takeError()); // one message is enough
     // Messages from files already say "file:line:col: error:".
-    std::string Message = llvm::toString(AnalysisOrErr.takeError());
+    std::string Message = llvm::toString(std::move(E));
     if (Message.find(": error: ") == std::string::npos)
       Message = "revbound: error: " + Message;
     std::cerr << Message << "\n";
     return ExitBadInput;
   }
+  const qasm::FrontendOptions &Front = *FrontOrErr;
   const report::AnalysisOptions &Analysis = *AnalysisOrErr;
   int Status = ExitOk;
   for (const std::string &File : O.Files) {
@@ -182,9 +231,18 @@ int analyzeAll(const InputOptions &O, report::Report &Out) {
     for (const Diagnostic &W : Warnings.warnings())
       std::cerr << formatDiagnostic(Files.mgr(), W);
     if (!R) {
-      llvm::handleAllErrors(R.takeError(), [&](const DiagnosticError &E) {
-        std::cerr << formatDiagnostic(Files.mgr(), E.diagnostic());
-      });
+      llvm::handleAllErrors(
+          R.takeError(),
+          [&](const DiagnosticError &E) {
+            std::cerr << formatDiagnostic(Files.mgr(), E.diagnostic());
+          },
+          [&](const llvm::ErrorInfoBase &E) {
+            // Errors without a place in a file: a --role naming no register,
+            // an engine that cannot run.
+            std::cerr << fmt::format("{}: error: {}\n",
+                                     File == "-" ? "<stdin>" : File,
+                                     E.message());
+          });
       Status = ExitBadInput;
       continue;
     }

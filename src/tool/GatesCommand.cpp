@@ -49,7 +49,8 @@ int runGates(const GatesOptions &O) {
       return printError(Files, A.takeError());
     Assignments.push_back(std::move(*A));
   }
-  qasm::FrontendOptions Front = frontendOptions(O.Input);
+  // The gates command takes no --role, so this cannot fail.
+  qasm::FrontendOptions Front = llvm::cantFail(frontendOptions(O.Input));
   DiagnosticSink Warnings;
   unsigned LibId = Files.addBuffer("<revbound gates>",
                                    "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n");

@@ -16,12 +16,13 @@ using namespace revbound::tool;
 static const Command Commands[] = {
     {"report", "count, schedule and report circuits", setupReport},
     {"gates", "list the gate library: arity, parameters, class, angle", setupGates},
+    {"check", "hold circuits to a budget and a baseline: the CI verdict", setupCheck},
 };
 
 int main(int argc, char **argv) {
   try {
     CLI::App App{"revbound: what physics says OpenQASM 2.0 circuits must cost"};
-    App.set_version_flag("--version", "revbound 0.1.0");
+    App.set_version_flag("--version", "revbound " REVBOUND_VERSION);
     App.require_subcommand(1);
     std::vector<std::pair<CLI::App *, std::function<int()>>> Runners;
     for (const Command &C : Commands) {

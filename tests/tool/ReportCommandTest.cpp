@@ -61,9 +61,13 @@ TEST_F(ReportCommand, JsonContract) {
   EXPECT_EQ(C["speed"]["orthogonal_ops"], 2);
   EXPECT_TRUE(C["speed"]["energy_J"].is_null());
   EXPECT_TRUE(C["speed"]["time_s"]["pooled"].is_null());
-  // Later issues fill these; until then they are absent, never faked.
-  EXPECT_FALSE(C.contains("erasures"));
-  EXPECT_FALSE(C.contains("landauer"));
+  // Two measures into bits known to be 0 overwrite nothing (DESIGN.md,
+  // "Erasure ledger"), and nothing is discarded.
+  EXPECT_EQ(C["erasures"]["events"], 0);
+  EXPECT_EQ(C["erasures"]["entropy_bits"]["high"], 0.0);
+  EXPECT_TRUE(C["ancillas"].empty());
+  EXPECT_EQ(C["landauer"]["temperature_K"], 300.0);
+  EXPECT_EQ(C["landauer"]["heat_J"]["low"], 0.0);
 }
 
 TEST_F(ReportCommand, DeterministicAndStdin) {
@@ -158,7 +162,7 @@ TEST_F(ReportCommand, UnknownNativeNameAndCommand) {
                    "a gate the file defines\n");
   R = invoke("frob bell.qasm");
   EXPECT_EQ(R.Exit, 2);
-  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report gates\n");
+  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report gates check\n");
 }
 
 TEST_F(ReportCommand, OpaqueGatesInThePrimitiveCounts) {

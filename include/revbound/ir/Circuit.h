@@ -22,6 +22,7 @@
 #include "llvm/Support/SMLoc.h"
 
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -86,6 +87,24 @@ struct Condition {
 
 inline constexpr uint32_t NoCondition = UINT32_MAX;
 
+/// What a qubit holds at the start and what happens to it at the end
+/// (DESIGN.md, "Roles of wires").
+enum class WireRole : uint8_t {
+  Output,  // starts |0>, kept (the default)
+  Input,   // starts uniformly random over basis states, kept
+  Ancilla, // starts |0>, must end |0>; discarded
+  Garbage, // starts |0>, discarded
+};
+
+/// "output", "input", "ancilla" or "garbage".
+const char *wireRoleName(WireRole R);
+/// The role spelled `Name`, if it is one.
+std::optional<WireRole> parseWireRole(llvm::StringRef Name);
+/// True for the roles whose wires are discarded at the end.
+inline bool isDiscarded(WireRole R) {
+  return R == WireRole::Ancilla || R == WireRole::Garbage;
+}
+
 /// One top-level operation after broadcasting.
 ///  - Gate:    Wires are the qubits, in argument order.
 ///  - Measure: Wires[0] is the qubit, Wires[1] the bit.
@@ -120,6 +139,12 @@ public:
   std::vector<double> Params;
   std::vector<Condition> Conditions;
 
+  /// One role per qubit (empty means every qubit is an output), and where
+  /// each was declared (an invalid location for the default and for roles
+  /// given on the command line).
+  std::vector<WireRole> QubitRoles;
+  std::vector<llvm::SMLoc> QubitRoleLocs;
+
   static constexpr GateId UGate = 0;
   static constexpr GateId CXGate = 1;
 
@@ -131,6 +156,12 @@ public:
     if (O.Kind != OpKind::Gate)
       return {};
     return {Params.data() + O.FirstParam, Gates[O.Gate].numParams()};
+  }
+  WireRole role(uint32_t Q) const {
+    return Q < QubitRoles.size() ? QubitRoles[Q] : WireRole::Output;
+  }
+  llvm::SMLoc roleLoc(uint32_t Q) const {
+    return Q < QubitRoleLocs.size() ? QubitRoleLocs[Q] : llvm::SMLoc();
   }
   /// Name of qubit `Q` as "reg[i]".
   std::string qubitName(uint32_t Q) const;

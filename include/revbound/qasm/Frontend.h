@@ -11,6 +11,7 @@
 
 #include "revbound/ir/Circuit.h"
 #include "revbound/qasm/Parser.h"
+#include "revbound/qasm/Roles.h"
 #include "revbound/support/Diagnostics.h"
 #include "revbound/support/SourceFiles.h"
 
@@ -34,6 +35,7 @@ inline constexpr unsigned MaxNestingCap = 2000;
 struct FrontendOptions {
   ParserOptions Parser;
   FrontendLimits Limits;
+  std::vector<RoleOption> Roles; // --role, applied over the file's roles
 };
 
 /// Parses and elaborates buffer `BufferId` of `Files` into a circuit.

@@ -15,6 +15,7 @@
 
 #include <cstdint>
 #include <string>
+#include <vector>
 
 namespace revbound::qasm {
 
@@ -85,6 +86,11 @@ public:
 
   /// Returns the next token and advances.
   Token lex();
+  /// From now on, appends every comment that starts with `//!` (a role
+  /// annotation, docs/formats.md) to `Out`, from `//` to the end of line.
+  void collectAnnotations(std::vector<llvm::StringRef> *Out) {
+    Annotations = Out;
+  }
   /// For an Error token: what is wrong (set when lex() returned Tok::Error).
   const std::string &errorMessage() const { return ErrorMessage; }
 
@@ -107,6 +113,7 @@ private:
   const char *Cur;
   const char *End; // *End is the buffer's NUL, a sentinel for the hot loops
   std::string ErrorMessage;
+  std::vector<llvm::StringRef> *Annotations = nullptr;
 };
 
 } // namespace revbound::qasm

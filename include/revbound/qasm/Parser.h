@@ -7,6 +7,7 @@
 #include "revbound/support/SourceFiles.h"
 
 #include <string>
+#include <vector>
 
 namespace revbound::qasm {
 
@@ -18,10 +19,12 @@ struct ParserOptions {
 
 /// Parses buffer `BufferId` of `Files` and streams its statements, and those
 /// of the files it includes, to `Sink`. Returns the first error, which is a
-/// DiagnosticError; warnings go to `Warnings`.
+/// DiagnosticError; warnings go to `Warnings`. With `Annotations`, the
+/// `//!` comments of every file read are appended to it.
 llvm::Error parseProgram(SourceFiles &Files, unsigned BufferId,
                          const ParserOptions &Opts, StatementSink &Sink,
-                         DiagnosticSink &Warnings);
+                         DiagnosticSink &Warnings,
+                         std::vector<llvm::StringRef> *Annotations = nullptr);
 
 } // namespace revbound::qasm
 

@@ -12,6 +12,7 @@
 #include "revbound/analysis/DeviceSchedule.h"
 #include "revbound/analysis/SpeedBounds.h"
 #include "revbound/qasm/Frontend.h"
+#include "revbound/semantics/Engines.h"
 #include "revbound/support/SourceFiles.h"
 
 #include <cstdint>
@@ -56,6 +57,41 @@ struct SpeedReport {
   std::optional<analysis::DeviceComparison> Device; // with --durations
 };
 
+/// One erasure of DESIGN.md's ledger, located.
+struct ErasureEntry {
+  std::string Kind;   // reset | overwrite | discard
+  std::string Wire;   // "anc[0]", or the bit "c[1]" of an overwrite
+  SourcePoint At;
+  std::string Status; // constant | exact | unknown
+  double BitsLow = 0, BitsHigh = 0;
+  uint64_t Samples = 0;   // nonzero: BitsEstimate is sampled, not a bound
+  double BitsEstimate = 0;
+};
+
+struct AncillaEntry {
+  std::string Wire;
+  std::optional<bool> Clean;
+  /// Input register -> bit string, highest index first (as a binary
+  /// numeral); qubits of the register that are not inputs read 0.
+  std::vector<std::pair<std::string, std::string>> Counterexample;
+  bool HasCounterexample = false;
+  std::optional<double> DirtyProbability;
+  uint64_t Samples = 0, DirtySamples = 0;
+};
+
+/// DESIGN.md's `erasures`, `ancillas` and `landauer`.
+struct ErasureReport {
+  std::string Engine, Reason;
+  uint64_t Events = 0;
+  semantics::BitInterval Entropy;      // every event, discards jointly
+  semantics::BitInterval DiscardJoint; // the discard at the end alone
+  std::vector<ErasureEntry> List;
+  std::vector<AncillaEntry> Ancillas;
+  std::vector<std::string> Notes;
+  double TemperatureK = 300;
+  double HeatLowJ = 0, HeatHighJ = 0;
+};
+
 struct CircuitReport {
   std::string File;
   uint32_t Qubits = 0;
@@ -66,6 +102,7 @@ struct CircuitReport {
   uint64_t Volume = 0;
   CriticalPath Path;
   SpeedReport Speed;
+  ErasureReport Erasures;
   std::vector<Finding> Warnings;
 };
 
@@ -81,6 +118,8 @@ struct AnalysisOptions {
   llvm::StringMap<double> GivenAngles; // --gate-angle NAME=RADIANS
   unsigned MaxMatrixQubits = 10;       // widest leaf given a unitary
   std::optional<config::Durations> Durations; // --durations FILE.toml
+  semantics::EngineOptions Engine;
+  double TemperatureK = 300; // --temperature
 };
 
 /// Reads, elaborates and analyses one file ("-" for standard input) whose

@@ -1,0 +1,67 @@
+//===- Engines.h - The three semantic engines and how one is chosen ------===//
+//
+// DESIGN.md, "Semantics tiers". Each engine walks the circuit once in
+// program order and fills a Ledger:
+//  - structural: any size; basis-value constant propagation only;
+//  - classical: wires as Boolean functions of the input bits (BDDs), exact
+//    for circuits of monomial gates, a sound over-approximation otherwise;
+//  - density: the exact mixed state of a small circuit.
+// `Auto` picks the strongest engine that fits and says why.
+//
+//===----------------------------------------------------------------------===//
+#ifndef REVBOUND_SEMANTICS_ENGINES_H
+#define REVBOUND_SEMANTICS_ENGINES_H
+
+#include "revbound/ir/Circuit.h"
+#include "revbound/semantics/Ledger.h"
+
+#include "llvm/ADT/StringRef.h"
+#include "llvm/Support/Error.h"
+
+#include <cstdint>
+#include <optional>
+
+namespace revbound::semantics {
+
+enum class EngineChoice { Auto, Structural, Classical, Density };
+/// Parses "auto", "structural", "classical" or "density".
+std::optional<EngineChoice> parseEngineChoice(llvm::StringRef Name);
+
+struct EngineOptions {
+  EngineChoice Choice = EngineChoice::Auto;
+  /// The density engine's widest circuit (--max-density-qubits).
+  unsigned MaxDensityQubits = 12;
+  /// `Auto` runs the density engine only while 4^qubits times the gate
+  /// applications stays under this, so that it stays within seconds.
+  uint64_t MaxAutoDensityWork = uint64_t(1) << 33;
+  /// BDD nodes the classical engine may hold before it falls back to
+  /// sampling.
+  uint64_t MaxBddNodes = uint64_t(1) << 22;
+  /// Gate applications an engine may expand to; calls past it are
+  /// over-approximated as a whole (unknown values on their qubits).
+  uint64_t MaxExpandedOps = 100'000'000;
+  /// Widest gate whose unitary an engine builds (ir::UnitaryCache).
+  unsigned MaxMatrixQubits = 10;
+  /// Random inputs for the sampling fallback, and its seed.
+  uint64_t Samples = 4096;
+  uint64_t Seed = 0x5eed;
+  /// Largest discard set whose joint entropy is computed exactly.
+  unsigned MaxJointWires = 16;
+};
+
+/// Runs the engine `Opts.Choice` names, or for Auto the strongest that fits.
+/// An explicit choice that cannot run (a density run on too many qubits)
+/// is an error whose message names the limit.
+llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
+                                 const EngineOptions &Opts);
+
+Ledger runStructural(const ir::Circuit &C, const EngineOptions &Opts);
+Ledger runClassical(const ir::Circuit &C, const EngineOptions &Opts);
+/// Fails when the circuit has more than MaxDensityQubits qubits or a gate
+/// without a unitary (an opaque gate).
+llvm::Expected<Ledger> runDensity(const ir::Circuit &C,
+                                  const EngineOptions &Opts);
+
+} // namespace revbound::semantics
+
+#endif

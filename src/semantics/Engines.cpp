@@ -1,0 +1,144 @@
+//===- Engines.cpp - Choosing a semantic engine ---------------------------===//
+#include "revbound/semantics/Engines.h"
+
+#include "EngineSupport.h"
+#include "revbound/semantics/GateExpander.h"
+
+#include <fmt/format.h>
+
+namespace revbound::semantics {
+
+std::optional<EngineChoice> parseEngineChoice(llvm::StringRef Name) {
+  if (Name == "auto")
+    return EngineChoice::Auto;
+  if (Name == "structural")
+    return EngineChoice::Structural;
+  if (Name == "classical")
+    return EngineChoice::Classical;
+  if (Name == "density")
+    return EngineChoice::Density;
+  return std::nullopt;
+}
+
+/// Gate applications of the whole circuit after expansion (saturating).
+static uint64_t expandedOps(const ir::Circuit &C) {
+  GateExpander Sizes(C, 0, 0);
+  uint64_t Total = 0;
+  for (const ir::Op &O : C.Ops) {
+    uint64_t S = O.Kind == ir::OpKind::Gate ? Sizes.expandedSize(O.Gate) : 1;
+    Total = Total > UINT64_MAX - S ? UINT64_MAX : Total + S;
+  }
+  return Total;
+}
+
+/// False when no event can occur: unitary gates change no entropy, and a
+/// measure into a bit nothing wrote before overwrites a known 0. Then no
+/// engine needs to run, which keeps huge files of gates and final
+/// measurements fast.
+static bool canErase(const ir::Circuit &C) {
+  if (!discardedQubits(C).empty())
+    return true;
+  std::vector<bool> Written(C.NumClbits, false);
+  for (const ir::Op &O : C.Ops) {
+    if (O.Kind == ir::OpKind::Reset)
+      return true;
+    if (O.Kind != ir::OpKind::Measure)
+      continue;
+    uint32_t Bit = C.wires(O)[1];
+    if (Written[Bit])
+      return true;
+    Written[Bit] = true;
+  }
+  return false;
+}
+
+/// True when the ledger leaves nothing open: every event and every ancilla
+/// decided, the discard's joint entropy exact.
+static bool complete(const Ledger &L) {
+  for (const ErasureEvent &E : L.Events)
+    if (E.Kind != ErasureKind::Discard && E.Status == ErasureStatus::Unknown)
+      return false;
+  for (const AncillaVerdict &A : L.Ancillas)
+    if (!A.Clean)
+      return false;
+  bool AnyDiscard = false;
+  for (const ErasureEvent &E : L.Events)
+    AnyDiscard |= E.Kind == ErasureKind::Discard;
+  return !AnyDiscard || L.DiscardJoint.Exact;
+}
+
+llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
+                                 const EngineOptions &Opts) {
+  switch (Opts.Choice) {
+  case EngineChoice::Structural: {
+    Ledger L = runStructural(C, Opts);
+    L.Reason = "structural, as chosen with --engine";
+    return L;
+  }
+  case EngineChoice::Classical: {
+    Ledger L = runClassical(C, Opts);
+    L.Reason = "classical, as chosen with --engine";
+    return L;
+  }
+  case EngineChoice::Density: {
+    llvm::Expected<Ledger> L = runDensity(C, Opts);
+    if (L)
+      L->Reason = "density, as chosen with --engine";
+    return L;
+  }
+  case EngineChoice::Auto:
+    break;
+  }
+
+  if (!canErase(C)) {
+    Ledger L;
+    L.Engine = EngineKind::Structural;
+    L.DiscardJoint.Exact = true;
+    L.Reason = "structural: nothing can erase information (no reset, no bit "
+               "measured twice, no ancilla or garbage qubits)";
+    return L;
+  }
+  uint64_t Size = expandedOps(C);
+  if (Size > Opts.MaxExpandedOps) {
+    Ledger L = runStructural(C, Opts);
+    L.Reason = fmt::format(
+        "structural: the circuit expands to {} operations, more than the "
+        "semantic engines' limit of {}",
+        Size, Opts.MaxExpandedOps);
+    return L;
+  }
+  Ledger Classical = runClassical(C, Opts);
+  if (complete(Classical)) {
+    Classical.Reason =
+        "classical: every erasure and every ancilla was decided exactly";
+    return Classical;
+  }
+  std::string WhyNot;
+  if (C.NumQubits > Opts.MaxDensityQubits) {
+    WhyNot = fmt::format("{} qubits, over the density engine's {}",
+                         C.NumQubits, Opts.MaxDensityQubits);
+  } else {
+    // 4^n entries, touched once or twice per gate application.
+    uint64_t Work = (uint64_t(1) << (2 * C.NumQubits));
+    if (Size > Opts.MaxAutoDensityWork / Work) {
+      WhyNot = fmt::format("{} operations on {} qubits would take the "
+                           "density engine too long",
+                           Size, C.NumQubits);
+    } else {
+      llvm::Expected<Ledger> Density = runDensity(C, Opts);
+      if (Density) {
+        Density->Reason = fmt::format(
+            "density: {} qubits fit the exact simulation and the classical "
+            "engine left some figures open",
+            C.NumQubits);
+        return std::move(*Density);
+      }
+      WhyNot = llvm::toString(Density.takeError());
+    }
+  }
+  Classical.Reason = fmt::format(
+      "classical (not exact everywhere); no density simulation: {}", WhyNot);
+  return Classical;
+}
+
+} // namespace revbound::semantics

@@ -96,7 +96,7 @@ public:
     BuddyErrorCode = 0;
     BuddyNearLimit = false;
     int Cap = int(std::clamp<uint64_t>(MaxNodes, 16, MaxNodeCap));
-    int Initial = int(std::min<uint64_t>(Cap, 2 * Variables + (1u << 16)));
+    int Initial = int(std::min<uint64_t>(Cap, 2 * Variables + (1u << 14)));
     if (bdd_init(Initial, 10007) < 0) {
       Failure = "the BDD library could not start";
       return;
@@ -114,7 +114,7 @@ public:
     // Operator caches of a quarter of the table: BuDDy's caches are lossy,
     // and much smaller ones let an operation recompute shared
     // subproblems over and over.
-    bdd_setcacheratio(4);
+    bdd_setcacheratio(1);
     // The cap must exceed the table bdd_init rounded up to a prime.
     bdd_setmaxnodenum(std::max(Cap, bdd_getallocnum() + 1));
   }

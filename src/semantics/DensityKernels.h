@@ -9,6 +9,8 @@
 // rephases (a one-qubit one leaves the half of the entries where the qubit's
 // row and column bits agree alone), a permutation only moves entries, and a
 // general one-qubit gate does both updates in one pass over blocks of four.
+// Defined in DensityEngine.cpp, their one user; the tests check them
+// against full matrix products.
 //
 //===----------------------------------------------------------------------===//
 #ifndef REVBOUND_SEMANTICS_DENSITYKERNELS_H

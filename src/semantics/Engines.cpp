@@ -52,6 +52,26 @@ static bool canErase(const ir::Circuit &C) {
   return false;
 }
 
+/// Qubits that some operation other than a barrier touches: the density
+/// engine simulates only those.
+static unsigned activeQubits(const ir::Circuit &C) {
+  std::vector<bool> Used(C.NumQubits, false);
+  unsigned Count = 0;
+  for (const ir::Op &O : C.Ops) {
+    if (O.Kind == ir::OpKind::Barrier)
+      continue;
+    llvm::ArrayRef<uint32_t> W = C.wires(O);
+    if (O.Kind == ir::OpKind::Measure)
+      W = W.take_front(1);
+    for (uint32_t Q : W)
+      if (!Used[Q]) {
+        Used[Q] = true;
+        ++Count;
+      }
+  }
+  return Count;
+}
+
 /// True when the ledger leaves nothing open: every event and every ancilla
 /// decided, the discard's joint entropy exact.
 static bool complete(const Ledger &L) {
@@ -81,6 +101,16 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
     return L;
   }
   case EngineChoice::Density: {
+    unsigned Active = activeQubits(C);
+    if (Active <= Opts.MaxDensityQubits &&
+        expandedOps(C) > Opts.MaxDensityWork >> (2 * Active))
+      return llvm::createStringError(
+          llvm::inconvertibleErrorCode(),
+          "the density engine would need more than %llu matrix-entry "
+          "updates for %llu operations on %u qubits (minutes or more); use "
+          "--engine classical or auto",
+          (unsigned long long)Opts.MaxDensityWork,
+          (unsigned long long)expandedOps(C), Active);
     llvm::Expected<Ledger> L = runDensity(C, Opts);
     if (L)
       L->Reason = "density, as chosen with --engine";
@@ -114,23 +144,24 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
     return Classical;
   }
   std::string WhyNot;
-  if (C.NumQubits > Opts.MaxDensityQubits) {
-    WhyNot = fmt::format("{} qubits, over the density engine's {}",
-                         C.NumQubits, Opts.MaxDensityQubits);
+  unsigned Active = activeQubits(C);
+  if (Active > Opts.MaxDensityQubits) {
+    WhyNot = fmt::format("{} qubits in use, over the density engine's {}",
+                         Active, Opts.MaxDensityQubits);
   } else {
     // 4^n entries, touched once or twice per gate application.
-    uint64_t Work = (uint64_t(1) << (2 * C.NumQubits));
+    uint64_t Work = (uint64_t(1) << (2 * Active));
     if (Size > Opts.MaxAutoDensityWork / Work) {
       WhyNot = fmt::format("{} operations on {} qubits would take the "
                            "density engine too long",
-                           Size, C.NumQubits);
+                           Size, Active);
     } else {
       llvm::Expected<Ledger> Density = runDensity(C, Opts);
       if (Density) {
         Density->Reason = fmt::format(
             "density: {} qubits fit the exact simulation and the classical "
             "engine left some figures open",
-            C.NumQubits);
+            Active);
         return std::move(*Density);
       }
       WhyNot = llvm::toString(Density.takeError());

@@ -375,6 +375,35 @@ TEST(DensityEngine, CopyOfInputCleanOnlyWhenUncomputed) {
   }
 }
 
+// Checks the joint discard of wide sets. Five copies of one uniformly
+// random input bit carry one bit together: H(X, X, ..., X) = H(X) = 1
+// (Shannon, Bell Syst. Tech. J. 27, 379 (1948)). Four measured |+> qubits
+// and one copy of an input are five independent uniform bits: 5 bits.
+TEST(DensityEngine, JointDiscardOfWideSets) {
+  std::vector<std::pair<uint32_t, ir::WireRole>> Roles = {
+      {0, ir::WireRole::Input}};
+  for (uint32_t Q = 1; Q < 6; ++Q)
+    Roles.push_back({Q, ir::WireRole::Garbage});
+  {
+    auto L = density(program("qreg q[6];\ncx q[0],q[1];\ncx q[0],q[2];\n"
+                             "cx q[0],q[3];\ncx q[0],q[4];\ncx q[0],q[5];\n",
+                             Roles));
+    ASSERT_TRUE(L);
+    EXPECT_EQ(L->Events.size(), 5u);
+    EXPECT_TRUE(L->DiscardJoint.Exact);
+    EXPECT_NEAR(L->DiscardJoint.Low, 1, Tol);
+  }
+  {
+    std::string Text = "qreg q[6];\ncreg c[4];\ncx q[0],q[5];\n";
+    for (unsigned Q = 1; Q < 5; ++Q)
+      Text += fmt::format("h q[{0}];\nmeasure q[{0}] -> c[{1}];\n", Q, Q - 1);
+    auto L = density(program(Text, Roles));
+    ASSERT_TRUE(L);
+    EXPECT_TRUE(L->DiscardJoint.Exact);
+    EXPECT_NEAR(L->DiscardJoint.Low, 5, Tol);
+  }
+}
+
 // Checks that an opaque gate, which has no unitary, stops the engine with a
 // diagnostic at the call.
 TEST(DensityEngine, OpaqueGateIsAnError) {

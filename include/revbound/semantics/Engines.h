@@ -34,6 +34,8 @@ struct EngineOptions {
   /// `Auto` runs the density engine only while 4^qubits times the gate
   /// applications stays under this, so that it stays within seconds.
   uint64_t MaxAutoDensityWork = uint64_t(1) << 33;
+  /// An explicit density run refuses more than this (a few minutes).
+  uint64_t MaxDensityWork = uint64_t(1) << 38;
   /// BDD nodes the classical engine may hold before it falls back to
   /// sampling.
   uint64_t MaxBddNodes = uint64_t(1) << 22;
@@ -57,7 +59,8 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
 
 Ledger runStructural(const ir::Circuit &C, const EngineOptions &Opts);
 Ledger runClassical(const ir::Circuit &C, const EngineOptions &Opts);
-/// Fails when the circuit has more than MaxDensityQubits qubits or a gate
+/// Fails when more than MaxDensityQubits qubits are in use (touched by an
+/// operation other than a barrier), on a gate
 /// without a unitary (an opaque gate).
 llvm::Expected<Ledger> runDensity(const ir::Circuit &C,
                                   const EngineOptions &Opts);

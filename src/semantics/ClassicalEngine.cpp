@@ -52,6 +52,9 @@ constexpr uint64_t SmallFunction = 1024;
 /// two functions cost up to the product of their sizes, which the node limit
 /// alone does not bound.
 constexpr uint64_t FunctionShare = 64;
+/// The operator caches' size past which they stop growing with the node
+/// table (BuDDy keeps six caches of 24-byte entries).
+constexpr int CacheEntries = 1 << 20;
 /// Memory the sampling fallback may spend on words (wires x words x 8).
 constexpr uint64_t SamplingMemoryWords = (uint64_t(256) << 20) / 8;
 /// Inputs tried by the counterexample search before the BDD pass.
@@ -96,7 +99,7 @@ public:
     BuddyErrorCode = 0;
     BuddyNearLimit = false;
     int Cap = int(std::clamp<uint64_t>(MaxNodes, 16, MaxNodeCap));
-    int Initial = int(std::min<uint64_t>(Cap, 2 * Variables + (1u << 14)));
+    int Initial = int(std::min<uint64_t>(Cap, 2 * Variables + (1u << 15)));
     if (bdd_init(Initial, 10007) < 0) {
       Failure = "the BDD library could not start";
       return;
@@ -107,14 +110,9 @@ public:
     bdd_error_hook(onBuddyError);
     bdd_gbc_hook(onBuddyCollection);
     bdd_resize_hook(nullptr);
-    // Grow the table early and in big steps: collections cost a pass over
-    // the whole table, and arithmetic keeps most nodes alive.
+    // Grow the table in big steps: each growth rehashes the whole table.
     bdd_setmaxincrease(1 << 20);
-    bdd_setminfreenodes(40);
-    // Operator caches of a quarter of the table: BuDDy's caches are lossy,
-    // and much smaller ones let an operation recompute shared
-    // subproblems over and over.
-    bdd_setcacheratio(1);
+    fitCaches();
     // The cap must exceed the table bdd_init rounded up to a prime.
     bdd_setmaxnodenum(std::max(Cap, bdd_getallocnum() + 1));
   }
@@ -128,9 +126,22 @@ public:
   bool ok() const { return Running; }
   const std::string &failure() const { return Failure; }
 
+  /// Operator caches of half the node table, up to CacheEntries:
+  /// BuDDy's caches are lossy, and with much smaller ones an operation
+  /// recomputes shared subproblems over and over, in time exponential in
+  /// the depth of its functions. Called again as the table grows.
+  void fitCaches() {
+    int Table = bdd_getallocnum();
+    int Ratio = std::max(2, int(Table / CacheEntries));
+    if (Ratio != CacheRatio)
+      bdd_setcacheratio(Ratio);
+    CacheRatio = Ratio;
+  }
+
 private:
   bool Running = false;
   std::string Failure;
+  int CacheRatio = 0;
 };
 
 bool isConstant(const bdd &F) { return F == bddfalse || F == bddtrue; }
@@ -209,10 +220,10 @@ Assignment allInputsZero(const std::vector<uint32_t> &Inputs) {
 /// Wires as BDDs; the walk interface of walkCircuit, then finish().
 class BddSimulation {
 public:
-  BddSimulation(const ir::Circuit &C, const EngineOptions &Opts,
-                const std::vector<uint32_t> &Inputs,
+  BddSimulation(BuddySession &Session, const ir::Circuit &C,
+                const EngineOptions &Opts, const std::vector<uint32_t> &Inputs,
                 const std::vector<uint32_t> &Order)
-      : C(C), Opts(Opts), Inputs(Inputs), InputOfVar(Order),
+      : Session(Session), C(C), Opts(Opts), Inputs(Inputs), InputOfVar(Order),
         NumInputVars(uint32_t(Inputs.size())),
         WorkBudget(WorkPerNode * std::min(Opts.MaxBddNodes, MaxNodeCap)),
         FunctionCap(std::max(SmallFunction,
@@ -258,8 +269,7 @@ public:
   }
 
   void step(const GateStep &S, const BasisAction &A) {
-    if ((Guarded && Guard == bddfalse) ||
-        A.K == BasisAction::Kind::Identity)
+    if (neverRuns() || A.K == BasisAction::Kind::Identity)
       return;
     llvm::SmallVector<int, 4> Before;
     for (uint32_t Qb : S.Qubits)
@@ -283,13 +293,17 @@ public:
     charge(S, Before);
   }
 
+  /// True when the current condition provably never holds: then the
+  /// operation is no operation, and no event (docs/erasures.md).
+  bool neverRuns() const { return Guarded && Guard == bddfalse; }
+
   void reset(uint32_t Qb, const ir::Op &O) {
+    if (neverRuns())
+      return;
     bdd &Wire = Qubits[Qb];
     ErasureEvent E = event(ErasureKind::Reset, Qb, O);
     if (isConstant(Wire)) {
       constant(E);
-    } else if (Guarded && Guard == bddfalse) {
-      exact(E, 0); // never runs
     } else if (!Guarded) {
       if (inputOnly(Wire))
         exact(E, clampBits(binaryEntropy(probabilityOfOne(Wire)), 1));
@@ -302,14 +316,15 @@ public:
   }
 
   void measure(uint32_t Qb, uint32_t Cb, const ir::Op &O) {
+    if (neverRuns())
+      return;
     bdd &Dst = Bits[Cb];
     const bdd &Src = Qubits[Qb];
     // Overwriting a known constant erases nothing.
     if (!isConstant(Dst)) {
       ErasureEvent E = event(ErasureKind::Overwrite, Cb, O);
-      if (Dst == Src || (Guarded && Guard == bddfalse)) {
-        // c is a function of q in every branch, H(c | q) = 0; or the
-        // measure never runs.
+      if (Dst == Src) {
+        // c is a function of q in every branch: H(c | q) = 0.
         exact(E, 0);
       } else if (!Guarded) {
         if (inputOnly(Src) && inputOnly(Dst))
@@ -346,6 +361,10 @@ private:
       FunctionLimit |= Nodes > FunctionCap;
     }
     WorkLimit = Work > WorkBudget;
+    if (bdd_getallocnum() != TableSeen) {
+      TableSeen = bdd_getallocnum();
+      Session.fitCaches();
+    }
   }
 
   void assign(bdd &Wire, const bdd &New) {
@@ -563,6 +582,8 @@ private:
                std::vector<bdd> &Joint, bool &JointExact, double &MaxMarginal,
                double &HighSum);
 
+  BuddySession &Session;
+  int TableSeen = 0;
   const ir::Circuit &C;
   const EngineOptions &Opts;
   const std::vector<uint32_t> &Inputs;
@@ -683,7 +704,7 @@ std::optional<Ledger> runBdd(const ir::Circuit &C, const EngineOptions &Opts,
     Why = Session.failure();
     return std::nullopt;
   }
-  BddSimulation Sim(C, Opts, Inputs, inputOrder(C, Inputs));
+  BddSimulation Sim(Session, C, Opts, Inputs, inputOrder(C, Inputs));
   if (Sim.stopped()) {
     Why = stopReason(Sim, Opts, "while creating the input variables");
     return std::nullopt;

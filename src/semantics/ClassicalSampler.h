@@ -150,12 +150,12 @@ public:
   }
 
   void reset(uint32_t Qb, const ir::Op &O) {
+    if (Guarded && GuardKnown == 0)
+      return; // provably never runs: no operation, no event
     uint64_t *Wire = qubit(Qb);
     if (Record) {
       ErasureEvent E = event(ErasureKind::Reset, Qb, O, KnownQ[Qb] >= 0);
-      if (Guarded && GuardKnown == 0)
-        never(E);
-      else if (E.Status == ErasureStatus::Unknown) {
+      if (E.Status == ErasureStatus::Unknown) {
         std::vector<uint64_t> After(Wire, Wire + Words);
         for (unsigned W = 0; W < Words; ++W)
           After[W] = blend(W, 0, Wire[W]);
@@ -169,6 +169,8 @@ public:
   }
 
   void measure(uint32_t Qb, uint32_t Cb, const ir::Op &O) {
+    if (Guarded && GuardKnown == 0)
+      return;
     uint64_t *Src = qubit(Qb), *Dst = bit(Cb);
     if (Record && KnownB[Cb] < 0) {
       ErasureEvent E = event(ErasureKind::Overwrite, Cb, O, false);
@@ -176,8 +178,6 @@ public:
       for (unsigned W = 0; W < Words; ++W)
         After[W] = blend(W, Src[W], Dst[W]);
       E.BitsEstimate = guardedChange(Dst, After.data(), Src);
-      if (Guarded && GuardKnown == 0)
-        never(E);
       Events.push_back(E);
     }
     for (unsigned W = 0; W < Words; ++W)
@@ -310,16 +310,6 @@ private:
     for (unsigned I = 0; I < K; ++I)
       if (A.Written >> I & 1)
         New[I] = AllKnown ? int8_t(A.Perm[J] >> I & 1) : int8_t(-1);
-  }
-
-  /// An operation whose condition never holds erases exactly nothing.
-  static void never(ErasureEvent &E) {
-    if (E.Status == ErasureStatus::Constant)
-      return;
-    E.Status = ErasureStatus::Exact;
-    E.BitsLow = E.BitsHigh = 0;
-    E.Samples = 0;
-    E.BitsEstimate = 0;
   }
 
   ErasureEvent event(ErasureKind Kind, uint32_t Wire, const ir::Op &O,

@@ -223,8 +223,8 @@ struct WalkOutcome {
 /// Walks the operations of `C` in program order for a simulation `D`, which
 /// offers setCondition(const ir::Condition *), step(GateStep, BasisAction),
 /// reset(Qubit, Op), measure(Qubit, Bit, Op) and stopped(). A condition that
-/// can never hold still reaches the simulation (a reset under it is an
-/// event of 0 bits); barriers do nothing.
+/// can never hold reaches the simulation too, which then does nothing and
+/// lists no event; barriers do nothing.
 template <class Simulation>
 WalkOutcome walkCircuit(const ir::Circuit &C, const EngineOptions &Opts,
                         Simulation &D) {

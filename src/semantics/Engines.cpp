@@ -6,6 +6,10 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+
+#include <pthread.h>
+
 namespace revbound::semantics {
 
 std::optional<EngineChoice> parseEngineChoice(llvm::StringRef Name) {
@@ -72,6 +76,37 @@ static unsigned activeQubits(const ir::Circuit &C) {
   return Count;
 }
 
+/// Runs the classical engine on a thread with a large stack: BuDDy's
+/// operations and its garbage collector recurse once per variable level, and
+/// circuits with thousands of fresh variables go deeper than a default
+/// 8 MiB stack. The stack is reserved, not touched, so it costs no memory
+/// until used.
+static Ledger runClassicalOnLargeStack(const ir::Circuit &C,
+                                       const EngineOptions &Opts) {
+  struct Job {
+    const ir::Circuit *C;
+    const EngineOptions *Opts;
+    Ledger Result;
+  } J{&C, &Opts, {}};
+  pthread_attr_t Attr;
+  pthread_t Thread;
+  bool Started = pthread_attr_init(&Attr) == 0 &&
+                 pthread_attr_setstacksize(&Attr, size_t(1) << 30) == 0 &&
+                 pthread_create(
+                     &Thread, &Attr,
+                     [](void *P) -> void * {
+                       auto *J = static_cast<Job *>(P);
+                       J->Result = runClassical(*J->C, *J->Opts);
+                       return nullptr;
+                     },
+                     &J) == 0;
+  pthread_attr_destroy(&Attr);
+  if (!Started)
+    return runClassical(C, Opts); // no thread: the caller's stack will do
+  pthread_join(Thread, nullptr);
+  return std::move(J.Result);
+}
+
 /// True when the ledger leaves nothing open: every event and every ancilla
 /// decided, the discard's joint entropy exact.
 static bool complete(const Ledger &L) {
@@ -96,7 +131,7 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
     return L;
   }
   case EngineChoice::Classical: {
-    Ledger L = runClassical(C, Opts);
+    Ledger L = runClassicalOnLargeStack(C, Opts);
     L.Reason = "classical, as chosen with --engine";
     return L;
   }
@@ -129,15 +164,16 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
     return L;
   }
   uint64_t Size = expandedOps(C);
-  if (Size > Opts.MaxExpandedOps) {
+  if (Size > std::min(Opts.MaxExpandedOps, Opts.MaxAutoClassicalOps)) {
     Ledger L = runStructural(C, Opts);
     L.Reason = fmt::format(
         "structural: the circuit expands to {} operations, more than the "
-        "semantic engines' limit of {}",
-        Size, Opts.MaxExpandedOps);
+        "{} the classical engine takes under auto (--engine classical "
+        "runs it anyway)",
+        Size, std::min(Opts.MaxExpandedOps, Opts.MaxAutoClassicalOps));
     return L;
   }
-  Ledger Classical = runClassical(C, Opts);
+  Ledger Classical = runClassicalOnLargeStack(C, Opts);
   if (complete(Classical)) {
     Classical.Reason =
         "classical: every erasure and every ancilla was decided exactly";

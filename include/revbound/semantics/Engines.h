@@ -34,6 +34,11 @@ struct EngineOptions {
   /// `Auto` runs the density engine only while 4^qubits times the gate
   /// applications stays under this, so that it stays within seconds.
   uint64_t MaxAutoDensityWork = uint64_t(1) << 33;
+  /// `Auto` runs the classical engine only on circuits that expand to at
+  /// most this many operations; larger ones get the structural engine. A
+  /// BuDDy garbage collection on larger runs was seen to crash (an open
+  /// issue); `--engine classical` still runs them.
+  uint64_t MaxAutoClassicalOps = 50'000;
   /// An explicit density run refuses more than this (a few minutes).
   uint64_t MaxDensityWork = uint64_t(1) << 38;
   /// BDD nodes the classical engine may hold before it falls back to

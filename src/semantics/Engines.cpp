@@ -137,15 +137,15 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
   }
   case EngineChoice::Density: {
     unsigned Active = activeQubits(C);
-    if (Active <= Opts.MaxDensityQubits &&
-        expandedOps(C) > Opts.MaxDensityWork >> (2 * Active))
+    uint64_t Ops = Active <= Opts.MaxDensityQubits ? expandedOps(C) : 0;
+    if (Ops > Opts.MaxDensityWork >> (2 * Active))
       return llvm::createStringError(
           llvm::inconvertibleErrorCode(),
           "the density engine would need more than %llu matrix-entry "
           "updates for %llu operations on %u qubits (minutes or more); use "
           "--engine classical or auto",
-          (unsigned long long)Opts.MaxDensityWork,
-          (unsigned long long)expandedOps(C), Active);
+          (unsigned long long)Opts.MaxDensityWork, (unsigned long long)Ops,
+          Active);
     llvm::Expected<Ledger> L = runDensity(C, Opts);
     if (L)
       L->Reason = "density, as chosen with --engine";

@@ -86,9 +86,17 @@ void GateExpander::expandBody(ir::GateId G, llvm::ArrayRef<double> Params,
       return;
     }
   } else {
+    // Classified once here: the class decides Take and goes with the step.
     const ir::Matrix *U = unitary(G, Params);
-    if (!D.hasBody() || (U && Take(ir::classify(*U), D.numQubits()))) {
-      visitStep(G, Params, Qubits, U, Visit);
+    ir::UnitaryClass Class = U ? ir::classify(*U) : ir::UnitaryClass::General;
+    if (!D.hasBody() || (U && Take(Class, D.numQubits()))) {
+      GateStep S;
+      S.Gate = G;
+      S.Params = Params;
+      S.Qubits = Qubits;
+      S.U = U;
+      S.Class = Class;
+      Visit(S);
       return;
     }
   }

@@ -8,10 +8,10 @@
 // ancillas first, and stands in, as sampling, when the BDDs outgrow their
 // limits (ClassicalSampler.h).
 //
-// BuDDy is one global package (bdd_init ... bdd_done per run, hooks as
-// globals), so runClassical is not re-entrant: a mutex serialises callers.
+// BuDDy is one global package, so runs hold a BuddySession's lock.
 //
 //===----------------------------------------------------------------------===//
+#include "BuddySession.h"
 #include "ClassicalSampler.h"
 #include "ClassicalSteps.h"
 #include "EngineSupport.h"
@@ -27,7 +27,6 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
-#include <mutex>
 
 namespace revbound::semantics {
 namespace {
@@ -38,8 +37,6 @@ using Assignment = std::vector<std::pair<uint32_t, bool>>;
 /// Fresh variables past this many fall back to sampling: BuDDy keeps two
 /// nodes and per-operator tables for every variable.
 constexpr uint32_t MaxVariables = uint32_t(1) << 16;
-/// BuDDy counts nodes in an int.
-constexpr uint64_t MaxNodeCap = uint64_t(1) << 28;
 /// The BDD pass's work budget, per allowed node: after each gate step the
 /// functions of its qubits are charged their size past the first
 /// SmallFunction nodes. BuDDy's operations cost about the size of what
@@ -52,97 +49,10 @@ constexpr uint64_t SmallFunction = 1024;
 /// two functions cost up to the product of their sizes, which the node limit
 /// alone does not bound.
 constexpr uint64_t FunctionShare = 64;
-/// The operator caches' size past which they stop growing with the node
-/// table (BuDDy keeps six caches of 24-byte entries).
-constexpr int CacheEntries = 1 << 20;
 /// Memory the sampling fallback may spend on words (wires x words x 8).
 constexpr uint64_t SamplingMemoryWords = (uint64_t(256) << 20) / 8;
 /// Inputs tried by the counterexample search before the BDD pass.
 constexpr uint64_t SearchLanes = 256;
-
-//===----------------------------------------------------------------------===//
-// The BuDDy session
-//===----------------------------------------------------------------------===//
-
-// The hooks' state for the run in progress (BuDDy calls plain functions).
-std::mutex BuddyMutex;
-int BuddyErrorCode = 0;      // the first error BuDDy reported, 0 if none
-bool BuddyNearLimit = false; // a collection at the node cap freed < 5%
-
-void onBuddyError(int Code) {
-  // After an error BuDDy's operations return false until bdd_done; the walk
-  // notices the code after the current step and stops.
-  if (BuddyErrorCode == 0)
-    BuddyErrorCode = Code;
-}
-
-void onBuddyCollection(int Pre, bddGbcStat *S) {
-  if (Pre)
-    return;
-  bddStat St;
-  bdd_stats(&St);
-  // With the table at its cap, a collection that frees little is soon
-  // followed by another: stop instead of collecting after every node.
-  if (St.maxnodenum > 0 && S->nodes >= St.maxnodenum - St.maxnodenum / 50 &&
-      S->freenodes < S->nodes / 20)
-    BuddyNearLimit = true;
-}
-
-/// bdd_init ... bdd_done with recoverable errors and a node cap.
-class BuddySession {
-public:
-  BuddySession(uint64_t MaxNodes, uint64_t Variables) {
-    if (bdd_isrunning()) {
-      Failure = "the BDD library was already in use";
-      return;
-    }
-    BuddyErrorCode = 0;
-    BuddyNearLimit = false;
-    int Cap = int(std::clamp<uint64_t>(MaxNodes, 16, MaxNodeCap));
-    int Initial = int(std::min<uint64_t>(Cap, 2 * Variables + (1u << 15)));
-    if (bdd_init(Initial, 10007) < 0) {
-      Failure = "the BDD library could not start";
-      return;
-    }
-    Running = true;
-    // bdd_init installs handlers that print (collections) and abort
-    // (errors); neither may happen inside a library.
-    bdd_error_hook(onBuddyError);
-    bdd_gbc_hook(onBuddyCollection);
-    bdd_resize_hook(nullptr);
-    // Grow the table in big steps: each growth rehashes the whole table.
-    bdd_setmaxincrease(1 << 20);
-    fitCaches();
-    // The cap must exceed the table bdd_init rounded up to a prime.
-    bdd_setmaxnodenum(std::max(Cap, bdd_getallocnum() + 1));
-  }
-  ~BuddySession() {
-    if (Running)
-      bdd_done();
-  }
-  BuddySession(const BuddySession &) = delete;
-  BuddySession &operator=(const BuddySession &) = delete;
-
-  bool ok() const { return Running; }
-  const std::string &failure() const { return Failure; }
-
-  /// Operator caches of half the node table, up to CacheEntries:
-  /// BuDDy's caches are lossy, and with much smaller ones an operation
-  /// recomputes shared subproblems over and over, in time exponential in
-  /// the depth of its functions. Called again as the table grows.
-  void fitCaches() {
-    int Table = bdd_getallocnum();
-    int Ratio = std::max(2, int(Table / CacheEntries));
-    if (Ratio != CacheRatio)
-      bdd_setcacheratio(Ratio);
-    CacheRatio = Ratio;
-  }
-
-private:
-  bool Running = false;
-  std::string Failure;
-  int CacheRatio = 0;
-};
 
 bool isConstant(const bdd &F) { return F == bddfalse || F == bddtrue; }
 
@@ -225,9 +135,9 @@ public:
                 const std::vector<uint32_t> &Order)
       : Session(Session), C(C), Opts(Opts), Inputs(Inputs), InputOfVar(Order),
         NumInputVars(uint32_t(Inputs.size())),
-        WorkBudget(WorkPerNode * std::min(Opts.MaxBddNodes, MaxNodeCap)),
+        WorkBudget(WorkPerNode * std::min(Opts.MaxBddNodes, MaxBuddyNodeCap)),
         FunctionCap(std::max(SmallFunction,
-                             std::min(Opts.MaxBddNodes, MaxNodeCap) /
+                             std::min(Opts.MaxBddNodes, MaxBuddyNodeCap) /
                                  FunctionShare)),
         Qubits(C.NumQubits), Bits(C.NumClbits), FunctionSize(C.NumQubits, 1) {
     // Every session declares at least one variable: BuDDy 2.4's bdd_done
@@ -244,7 +154,7 @@ public:
   }
 
   bool stopped() const {
-    return BuddyErrorCode != 0 || BuddyNearLimit || VariableLimit ||
+    return BuddySession::failed() || VariableLimit ||
            WorkLimit || FunctionLimit;
   }
   bool functionLimit() const { return FunctionLimit; }
@@ -685,12 +595,13 @@ std::string stopReason(const BddSimulation &Sim, const EngineOptions &Opts,
     return fmt::format("BDD work limit of {} node visits ({} per allowed "
                        "node) reached {}",
                        Sim.workBudget(), WorkPerNode, Where);
-  if (BuddyNearLimit || BuddyErrorCode == BDD_NODENUM)
+  if (BuddySession::nearLimit() ||
+      BuddySession::errorCode() == BDD_NODENUM)
     return fmt::format("BDD node limit of {} reached {}", Opts.MaxBddNodes,
                        Where);
-  if (BuddyErrorCode == BDD_MEMORY)
+  if (BuddySession::errorCode() == BDD_MEMORY)
     return fmt::format("the BDD library ran out of memory {}", Where);
-  const char *What = bdd_errstring(BuddyErrorCode);
+  const char *What = bdd_errstring(BuddySession::errorCode());
   return fmt::format("the BDD library failed ({}) {}",
                      What ? What : "unknown error", Where);
 }
@@ -845,7 +756,6 @@ Ledger sampledLedger(const ir::Circuit &C, const EngineOptions &Opts,
 } // namespace
 
 Ledger runClassical(const ir::Circuit &C, const EngineOptions &Opts) {
-  std::lock_guard<std::mutex> Lock(BuddyMutex);
   std::map<uint32_t, Assignment> Found = searchCounterexamples(C, Opts);
   std::vector<uint32_t> Inputs = inputQubits(C);
   std::string Why;

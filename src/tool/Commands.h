@@ -67,6 +67,7 @@ struct Command {
 std::function<int()> setupReport(CLI::App &Cmd);
 std::function<int()> setupGates(CLI::App &Cmd);
 std::function<int()> setupCheck(CLI::App &Cmd);
+std::function<int()> setupCompare(CLI::App &Cmd);
 
 } // namespace revbound::tool
 

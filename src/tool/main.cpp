@@ -17,6 +17,7 @@ static const Command Commands[] = {
     {"report", "count, schedule and report circuits", setupReport},
     {"gates", "list the gate library: arity, parameters, class, angle", setupGates},
     {"check", "hold circuits to a budget and a baseline: the CI verdict", setupCheck},
+    {"compare", "several circuits of one function side by side; --equivalence first", setupCompare},
 };
 
 int main(int argc, char **argv) {

@@ -70,16 +70,28 @@ std::vector<std::string> verdictLines(const EquivalenceEntry &E) {
   return Lines;
 }
 
-/// A cell of the comparison: the value, its delta, and a star when best.
+/// A cell of the comparison: the value, its delta when nonzero, and a
+/// star (text) or bold (Markdown) when it is the row's least.
 std::string compareCell(const MetricRow &Row, size_t I, bool Markdown) {
   if (!Row.Values[I])
     return "n/a";
   std::string V = showMetric(Row.Values[I]);
+  const std::optional<MetricDelta> &D = Row.Deltas[I];
+  bool Zero = D && (D->IsCount ? D->CountMagnitude == 0 : D->Real == 0);
+  if (I > 0 && D && !Zero)
+    V += " " + showDelta(D, true);
   if (Row.Best[I])
     V = Markdown ? "**" + V + "**" : V + " *";
-  if (I > 0 && Row.Deltas[I])
-    V += " " + showDelta(Row.Deltas[I], true);
   return V;
+}
+
+/// Rows with no figure for any circuit (times without an energy) are left
+/// out of the tables for people.
+bool anyValue(const MetricRow &Row) {
+  for (const std::optional<MetricValue> &V : Row.Values)
+    if (V)
+      return true;
+  return false;
 }
 
 Json valueJson(const std::optional<MetricValue> &V) {
@@ -160,15 +172,17 @@ std::string writeCompareText(const CompareReport &R) {
   Header.insert(Header.end(), Files.begin(), Files.end());
   Table.push_back(Header);
   for (const MetricRow &Row : R.Rows) {
+    if (!anyValue(Row))
+      continue;
     std::vector<std::string> Cells = {Row.Label, Row.Unit};
     for (size_t I = 0; I < Files.size(); ++I)
       Cells.push_back(compareCell(Row, I, false));
     Table.push_back(std::move(Cells));
   }
   Out += "\n" + table::alignedColumns(Table);
-  Out += "\n* the least value of the row; deltas are against the reference; "
-         "every figure is a lower bound from physics or a count, not a "
-         "prediction for any hardware\n";
+  Out += "\n* marks the least value of a row; changes are against the "
+         "reference. Physical figures are lower bounds, not predictions "
+         "for any hardware.\n";
   return Out;
 }
 
@@ -189,13 +203,16 @@ std::string writeCompareMarkdown(const CompareReport &R) {
   Out += table::markdownRow(Header);
   Out += table::markdownRule(Header.size(), 2);
   for (const MetricRow &Row : R.Rows) {
+    if (!anyValue(Row))
+      continue;
     std::vector<std::string> Cells = {Row.Label, Row.Unit};
     for (size_t I = 0; I < Files.size(); ++I)
       Cells.push_back(compareCell(Row, I, true));
     Out += table::markdownRow(Cells);
   }
-  Out += "\nBold: the least value of the row. Deltas are against the "
-         "reference.\n";
+  Out += "\nBold marks the least value of a row; changes are against the "
+         "reference. Physical figures are lower bounds, not predictions for "
+         "any hardware.\n";
   return Out;
 }
 

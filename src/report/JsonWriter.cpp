@@ -36,19 +36,28 @@ static void erasuresJson(const ErasureReport &E, Json &J) {
   for (const ErasureEntry &X : E.List) {
     Json Item = {{"kind", X.Kind},     {"wire", X.Wire},
                  {"file", X.At.File},  {"line", X.At.Line},
-                 {"column", X.At.Column}, {"bits_low", X.BitsLow},
+                 {"column", X.At.Column}, {"layer", X.Layer},
+                 {"bits_low", X.BitsLow},
                  {"bits_high", X.BitsHigh}, {"status", X.Status}};
     if (X.Samples)
       Item["sampled"] = {{"samples", X.Samples},
                          {"estimate_bits", X.BitsEstimate}};
     List.push_back(std::move(Item));
   }
+  Json Hotspots = Json::array();
+  for (const ErasureHotspot &H : E.Hotspots)
+    Hotspots.push_back({{"file", H.File},
+                        {"line", H.Line},
+                        {"events", H.Events},
+                        {"bits_low", H.BitsLow},
+                        {"bits_high", H.BitsHigh}});
   J["erasures"] = {{"engine", E.Engine},
                    {"reason", E.Reason},
                    {"events", E.Events},
                    {"entropy_bits", interval(E.Entropy)},
                    {"discard_joint_bits", interval(E.DiscardJoint)},
                    {"list", std::move(List)},
+                   {"hotspots", std::move(Hotspots)},
                    {"notes", E.Notes}};
   Json Ancillas = Json::array();
   for (const AncillaEntry &A : E.Ancillas) {
@@ -134,6 +143,15 @@ static Json circuitJson(const CircuitReport &C) {
       {"least_energy_J", {{"pooled", orNull(B.PooledEnergyForTargetJ)},
                           {"per_qubit", orNull(B.PerQubitEnergyForTargetJ)}}},
   };
+  Json Frontier = Json::array();
+  for (const analysis::FrontierPoint &P : C.Speed.Frontier.Points)
+    Frontier.push_back({{"energy_J", P.EnergyJ},
+                        {"pooled_s", P.PooledTimeS},
+                        {"per_qubit_s", P.PerQubitTimeS}});
+  J["speed"]["frontier"] = {
+      {"anchor", analysis::frontierAnchorName(C.Speed.Frontier.Anchor)},
+      {"anchor_J", C.Speed.Frontier.AnchorJ},
+      {"points", std::move(Frontier)}};
   if (C.Speed.Device) {
     const analysis::DeviceComparison &D = *C.Speed.Device;
     Json Kinds = Json::array();
@@ -173,6 +191,17 @@ std::string writeJson(const Report &R) {
   // File names need not be UTF-8; invalid bytes become U+FFFD rather than
   // an exception.
   return Root.dump(2, ' ', false, Json::error_handler_t::replace) + "\n";
+}
+
+std::string writeJsonLine(const CircuitReport &C) {
+  Json Line;
+  Line["schema"] = SchemaVersion;
+  Json Circuit = circuitJson(C);
+  for (auto It = Circuit.begin(); It != Circuit.end(); ++It)
+    Line[It.key()] = std::move(It.value());
+  // Compact: JSON escapes control characters in strings, so the one line
+  // holds no newline.
+  return Line.dump(-1, ' ', false, Json::error_handler_t::replace) + "\n";
 }
 
 } // namespace revbound::report

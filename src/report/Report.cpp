@@ -1,11 +1,14 @@
 //===- Report.cpp - Running the analyses into a Report --------------------===//
 #include "revbound/report/Report.h"
 #include "revbound/analysis/LeafDag.h"
+#include "revbound/analysis/OpLayers.h"
 #include "revbound/analysis/Schedule.h"
 #include "revbound/physics/Landauer.h"
 
 #include <algorithm>
 #include <fmt/format.h>
+#include <map>
+#include <tuple>
 
 namespace revbound::report {
 
@@ -104,9 +107,90 @@ static std::string registerBits(const ir::Register &R,
   return Bits;
 }
 
-static void fillErasures(const ir::Circuit &C, const SourceFiles &Files,
-                         const semantics::Ledger &L, double TemperatureK,
-                         ErasureReport &Out) {
+/// True when top-level op `O` is the one erasure event `E` (a reset or an
+/// overwrite) comes from: the engines record the op's location and wire.
+static bool isEventOp(const ir::Circuit &C, const ir::Op &O,
+                      const semantics::ErasureEvent &E) {
+  if (O.Loc != E.Loc)
+    return false;
+  if (E.Kind == semantics::ErasureKind::Reset)
+    return O.Kind == ir::OpKind::Reset && C.wires(O)[0] == E.Wire;
+  return O.Kind == ir::OpKind::Measure && C.wires(O)[1] == E.Wire;
+}
+
+/// Sets each event's Layer: resets and overwrites the start layer of their
+/// op in the depth.all schedule, discards `DepthAll`.
+static llvm::Error fillLayers(const ir::Circuit &C,
+                              analysis::SummaryCache &Cache,
+                              const semantics::Ledger &L, uint64_t DepthAll,
+                              std::vector<ErasureEntry> &List) {
+  constexpr uint32_t None = UINT32_MAX;
+  std::vector<uint32_t> OpOf(L.Events.size(), None);
+  std::vector<uint32_t> Wanted;
+  uint32_t Cursor = 0; // events come in program order, one per op at most
+  for (size_t I = 0; I < L.Events.size(); ++I) {
+    const semantics::ErasureEvent &E = L.Events[I];
+    if (E.Kind == semantics::ErasureKind::Discard)
+      continue;
+    uint32_t N = uint32_t(C.Ops.size());
+    for (uint32_t Step = 0; Step < N && OpOf[I] == None; ++Step) {
+      uint32_t Index = (Cursor + Step) % N;
+      if (isEventOp(C, C.Ops[Index], E))
+        OpOf[I] = Index;
+    }
+    if (OpOf[I] == None)
+      return llvm::createStringError(
+          llvm::inconvertibleErrorCode(),
+          "internal error: an erasure event matches no operation");
+    Cursor = OpOf[I] + 1;
+    Wanted.push_back(OpOf[I]);
+  }
+  for (size_t I = 0; I < List.size(); ++I)
+    List[I].Layer = DepthAll;
+  if (Wanted.empty())
+    return llvm::Error::success();
+  std::sort(Wanted.begin(), Wanted.end());
+  Wanted.erase(std::unique(Wanted.begin(), Wanted.end()), Wanted.end());
+  llvm::Expected<analysis::OpLayers> Layers =
+      analysis::startLayers(C, Cache, Wanted);
+  if (!Layers)
+    return Layers.takeError();
+  for (size_t I = 0; I < List.size(); ++I) {
+    if (OpOf[I] == None)
+      continue;
+    auto At = std::lower_bound(Wanted.begin(), Wanted.end(), OpOf[I]);
+    List[I].Layer = Layers->Start[size_t(At - Wanted.begin())];
+  }
+  return llvm::Error::success();
+}
+
+/// Groups the events by file and line, largest first.
+static std::vector<ErasureHotspot>
+hotspotsOf(const std::vector<ErasureEntry> &List) {
+  std::map<std::pair<std::string, unsigned>, ErasureHotspot> ByLine;
+  for (const ErasureEntry &X : List) {
+    ErasureHotspot &H = ByLine[{X.At.File, X.At.Line}];
+    H.File = X.At.File;
+    H.Line = X.At.Line;
+    ++H.Events;
+    H.BitsLow += X.BitsLow;
+    H.BitsHigh += X.BitsHigh;
+  }
+  std::vector<ErasureHotspot> Out;
+  for (auto &[Key, H] : ByLine)
+    Out.push_back(std::move(H));
+  std::stable_sort(Out.begin(), Out.end(),
+                   [](const ErasureHotspot &A, const ErasureHotspot &B) {
+                     return std::tie(B.BitsHigh, B.BitsLow, B.Events) <
+                            std::tie(A.BitsHigh, A.BitsLow, A.Events);
+                   });
+  return Out;
+}
+
+static llvm::Error fillErasures(const ir::Circuit &C, const SourceFiles &Files,
+                                analysis::SummaryCache &Cache,
+                                const semantics::Ledger &L, uint64_t DepthAll,
+                                double TemperatureK, ErasureReport &Out) {
   Out.Engine = semantics::engineName(L.Engine);
   Out.Reason = L.Reason;
   Out.Notes = L.Notes;
@@ -127,6 +211,9 @@ static void fillErasures(const ir::Circuit &C, const SourceFiles &Files,
     X.BitsEstimate = E.BitsEstimate;
     Out.List.push_back(std::move(X));
   }
+  if (llvm::Error E = fillLayers(C, Cache, L, DepthAll, Out.List))
+    return E;
+  Out.Hotspots = hotspotsOf(Out.List);
   for (const semantics::AncillaVerdict &A : L.Ancillas) {
     AncillaEntry X;
     X.Wire = C.qubitName(A.Qubit);
@@ -155,6 +242,7 @@ static void fillErasures(const ir::Circuit &C, const SourceFiles &Files,
   Out.TemperatureK = TemperatureK;
   Out.HeatLowJ = physics::landauerHeat(Out.Entropy.Low, TemperatureK);
   Out.HeatHighJ = physics::landauerHeat(Out.Entropy.High, TemperatureK);
+  return llvm::Error::success();
 }
 
 llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
@@ -199,6 +287,7 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
     return Speed.takeError();
   R.Speed.Energy = Opts.Energy;
   R.Speed.Bounds = std::move(*Speed);
+  R.Speed.Frontier = analysis::sampleFrontier(R.Speed.Bounds, Opts.Energy);
   if (Opts.Durations) {
     llvm::Expected<analysis::DeviceComparison> Device = analysis::compareWithDevice(
         C, Cache, Costs, *Opts.Durations, Opts.Energy, R.Speed.Bounds);
@@ -210,7 +299,9 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
       semantics::runEngine(C, Opts.Engine);
   if (!Ledger)
     return Ledger.takeError();
-  fillErasures(C, Files, *Ledger, Opts.TemperatureK, R.Erasures);
+  if (llvm::Error E = fillErasures(C, Files, Cache, *Ledger, R.DepthAll,
+                                   Opts.TemperatureK, R.Erasures))
+    return std::move(E);
   if (!R.Speed.Bounds.UnknownGates.empty()) {
     std::string Names;
     for (const std::string &N : R.Speed.Bounds.UnknownGates)

@@ -76,8 +76,11 @@ static void writeSpeed(const CircuitReport &C, std::string &Out) {
 }
 
 static std::string bits(double Low, double High) {
-  if (Low == High)
-    return fmt::format("{:.6g} bit{}", Low, Low == 1 ? "" : "s");
+  if (Low == High) {
+    // The plural follows what is printed: 0.9999999999999999 reads "1 bit".
+    std::string Shown = fmt::format("{:.6g}", Low);
+    return Shown + (Shown == "1" ? " bit" : " bits");
+  }
   return fmt::format("{:.6g} to {:.6g} bits", Low, High);
 }
 

@@ -39,6 +39,13 @@ public:
   /// errorCode() or nearLimit().
   static bool failed() { return errorCode() != 0 || nearLimit(); }
 
+  /// bdd_setvarnum(Count) (at least the current count), and its result.
+  /// Use this rather than bdd_setvarnum or bdd_extvarnum: it also clears
+  /// the node reference stack that BuDDy 2.4 allocates anew, which its
+  /// collections would otherwise read before anything wrote it
+  /// (BuddySession.cpp).
+  int setVariableCount(int Count);
+
   /// Operator caches of half the node table, up to a fixed size: BuDDy's
   /// caches are lossy, and with much smaller ones an operation recomputes
   /// shared subproblems over and over, in time exponential in the depth of

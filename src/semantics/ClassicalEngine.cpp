@@ -11,6 +11,7 @@
 // BuDDy is one global package, so runs hold a BuddySession's lock.
 //
 //===----------------------------------------------------------------------===//
+#include "BddSteps.h"
 #include "BuddySession.h"
 #include "ClassicalSampler.h"
 #include "ClassicalSteps.h"
@@ -144,7 +145,7 @@ public:
     // frees the level tables of the last bdd_setvarnum without clearing
     // them, so a session without one would free them twice. A spare one
     // waits for the first fresh variable.
-    bdd_setvarnum(int(std::max<uint32_t>(NumInputVars, 1)));
+    Session.setVariableCount(int(std::max<uint32_t>(NumInputVars, 1)));
     if (stopped())
       return;
     VarsAllocated = std::max<uint32_t>(NumInputVars, 1);
@@ -188,13 +189,13 @@ public:
     case BasisAction::Kind::Identity:
       break;
     case BasisAction::Kind::Flip:
-      flip(S, A);
+      applyFlip(Qubits, S, A, guard());
       break;
     case BasisAction::Kind::Relabel:
-      relabel(S, A);
+      applyRelabel(Qubits, S, A, guard());
       break;
     case BasisAction::Kind::Table:
-      table(S, A);
+      applyTable(Qubits, S, A, guard());
       break;
     case BasisAction::Kind::Fresh:
       fresh(S, A);
@@ -277,60 +278,9 @@ private:
     }
   }
 
-  void assign(bdd &Wire, const bdd &New) {
-    Wire = Guarded ? bdd_ite(Guard, New, Wire) : New;
-  }
+  const bdd *guard() const { return Guarded ? &Guard : nullptr; }
 
-  void flip(const GateStep &S, const BasisAction &A) {
-    bdd Ctrl = Guarded ? Guard : bddtrue;
-    for (unsigned I = 0; I < A.Arity; ++I)
-      if (A.ControlMask >> I & 1) {
-        const bdd &W = Qubits[S.Qubits[I]];
-        Ctrl &= (A.ControlValue >> I & 1) ? W : !W;
-      }
-    // The condition folds into the control: ite(g, t ^ c, t) = t ^ (g & c).
-    bdd &T = Qubits[S.Qubits[A.Target]];
-    T ^= Ctrl;
-  }
-
-  void relabel(const GateStep &S, const BasisAction &A) {
-    llvm::SmallVector<bdd, 4> Old;
-    for (uint32_t Qb : S.Qubits)
-      Old.push_back(Qubits[Qb]);
-    for (unsigned I = 0; I < A.Arity; ++I) {
-      const bdd &Moved = Old[I];
-      Qubits[S.Qubits[A.Dest[I]]] =
-          Guarded ? bdd_ite(Guard, Moved, Old[A.Dest[I]]) : Moved;
-    }
-  }
-
-  /// Output bit `Out` of the permutation table over the index range
-  /// [Base, Base + 2^Level), as a function of the first Level arguments.
-  bdd fromTable(const BasisAction &A, unsigned Out, uint32_t Base,
-                unsigned Level, llvm::ArrayRef<bdd> In) {
-    uint32_t Size = uint32_t(1) << Level;
-    bool First = A.Perm[Base] >> Out & 1, Same = true;
-    for (uint32_t J = Base + 1; J < Base + Size && Same; ++J)
-      Same = bool(A.Perm[J] >> Out & 1) == First;
-    if (Same)
-      return First ? bddtrue : bddfalse;
-    bdd Lo = fromTable(A, Out, Base, Level - 1, In);
-    bdd Hi = fromTable(A, Out, Base + Size / 2, Level - 1, In);
-    return bdd_ite(In[Level - 1], Hi, Lo);
-  }
-
-  void table(const GateStep &S, const BasisAction &A) {
-    llvm::SmallVector<bdd, 4> Old, New;
-    for (uint32_t Qb : S.Qubits)
-      Old.push_back(Qubits[Qb]);
-    New = Old;
-    for (unsigned I = 0; I < A.Arity; ++I)
-      if (A.Written >> I & 1)
-        New[I] = fromTable(A, I, 0, A.Arity, Old);
-    for (unsigned I = 0; I < A.Arity; ++I)
-      if (A.Written >> I & 1)
-        assign(Qubits[S.Qubits[I]], New[I]);
-  }
+  void assign(bdd &Wire, const bdd &New) { assignGuarded(Wire, New, guard()); }
 
   void fresh(const GateStep &S, const BasisAction &A) {
     if (A.Changed.empty())
@@ -353,7 +303,7 @@ private:
       // Grow geometrically: each extension resizes BuDDy's tables.
       uint32_t Grow = std::min(std::max(VarsAllocated, uint32_t(256)),
                                MaxVariables - VarsAllocated);
-      bdd_extvarnum(int(Grow));
+      Session.setVariableCount(int(VarsAllocated + Grow));
       if (stopped() || bdd_varnum() != int(VarsAllocated + Grow))
         return false;
       VarsAllocated += Grow;

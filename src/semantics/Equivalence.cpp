@@ -169,8 +169,10 @@ checkEquivalence(const ir::Circuit &A, const ir::Circuit &B,
     return Finish(std::move(*Exact.Result));
   WhyNot.push_back("exact: " + Exact.WhyNot);
   Attempt Functions = compareFunctions(A, B, *I, Opts);
-  if (Functions.Result)
+  if (Functions.Result) {
+    Functions.Result->Reason += "; the exact method did not fit: " + Exact.WhyNot;
     return Finish(std::move(*Functions.Result));
+  }
   WhyNot.push_back("bdd: " + Functions.WhyNot);
   Attempt Random = compareStates(A, B, *I, Opts, /*Random=*/true);
   if (Random.Result) {

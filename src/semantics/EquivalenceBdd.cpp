@@ -168,7 +168,7 @@ Attempt compareFunctions(const ir::Circuit &A, const ir::Circuit &B,
   }
   // At least one variable: BuDDy 2.4's bdd_done frees the level tables of
   // the last bdd_setvarnum twice without one (see ClassicalEngine.cpp).
-  bdd_setvarnum(int(std::max<size_t>(Inputs, 1)));
+  Session.setVariableCount(int(std::max<size_t>(Inputs, 1)));
   std::vector<uint32_t> InputsOfA;
   for (const auto &P : I.Inputs)
     InputsOfA.push_back(P.first);
@@ -188,8 +188,16 @@ Attempt compareFunctions(const ir::Circuit &A, const ir::Circuit &B,
                            std::pair{&SimB, "candidate"}}) {
     WalkOutcome W = walkCircuit(Sim->C, Walk, *Sim);
     if (!W.Finished) {
-      Out.WhyNot = fmt::format("{}: {}", Side,
-                               stopReason(*Sim, Opts.MaxBddNodes));
+      const ir::Op &At = Sim->C.Ops[W.StoppedAt];
+      std::string Where =
+          At.Kind == ir::OpKind::Gate
+              ? fmt::format(" (in operation {} of {}, a call of {})",
+                            W.StoppedAt + 1, Sim->C.Ops.size(),
+                            Sim->C.gate(At.Gate).Name)
+              : fmt::format(" (at operation {} of {})", W.StoppedAt + 1,
+                            Sim->C.Ops.size());
+      Out.WhyNot = fmt::format("{}: {}{}", Side,
+                               stopReason(*Sim, Opts.MaxBddNodes), Where);
       return Out;
     }
     if (W.BudgetRanOut) {

@@ -654,10 +654,13 @@ Attempt compareStates(const ir::Circuit &A, const ir::Circuit &B,
           for (uint64_t Y = X + 1; Y < PerInput.size() && !Found; ++Y)
             if (pairDistance2(PerInput[X], PerInput[Y]) > Opts.Tolerance)
               Found = Cmp.superposedWitness(X, Y);
+        R.Notes.push_back(
+            "the circuits agree on every basis input and differ only on "
+            "superpositions of inputs: a relative phase, or a discarded wire "
+            "(a dirty ancilla, garbage) that holds information about the "
+            "inputs");
         if (!Found)
-          R.Notes.push_back("the circuits agree on every basis input and "
-                            "differ on superpositions; no two-state witness "
-                            "was located");
+          R.Notes.push_back("no two-state witness was located");
       }
     }
     R.Verdict = Differs ? EquivalenceVerdict::NotEquivalent

@@ -1,5 +1,6 @@
 //===- CheckCommand.cpp - `revbound check FILE... --budget BUDGET.toml` ---===//
 #include "Commands.h"
+#include "InputFiles.h"
 
 #include "revbound/policy/BaselineReader.h"
 #include "revbound/policy/Budget.h"
@@ -8,6 +9,7 @@
 
 #include <fmt/format.h>
 
+#include <filesystem>
 #include <iostream>
 #include <memory>
 
@@ -71,10 +73,18 @@ int runCheck(const CheckOptions &O) {
                       "to standard output ('-')");
   if (O.BaselineFile == "-")
     return usageError("--baseline must name a file, not standard input");
+  if (!O.BaselineFile.empty() && std::filesystem::is_directory(O.BaselineFile))
+    return usageError(fmt::format("--baseline {} is a folder; give one "
+                                  "circuit or a saved JSON report",
+                                  O.BaselineFile));
   bool BaselineIsCircuit =
       !O.BaselineFile.empty() && !policy::isJsonReport(O.BaselineFile);
+  // Folders count as the circuits they hold.
+  llvm::Expected<std::vector<std::string>> Checked = expandInputs(O.Input.Files);
+  if (!Checked)
+    return usageError(llvm::toString(Checked.takeError()));
   if (llvm::Error E = policy::checkBaselineUse(
-          *B, O.BaselineFile, BaselineIsCircuit, O.Input.Files.size()))
+          *B, O.BaselineFile, BaselineIsCircuit, Checked->size()))
     return usageError(llvm::toString(std::move(E)));
   std::optional<policy::Baseline> Base;
   if (!O.BaselineFile.empty() && B->Growth.empty()) {

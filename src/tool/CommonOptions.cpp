@@ -1,6 +1,9 @@
 //===- CommonOptions.cpp - Options shared by the commands that read files -===//
 #include "Commands.h"
 
+#include "Batch.h"
+#include "InputFiles.h"
+
 #include "revbound/support/Diagnostics.h"
 #include "revbound/support/Units.h"
 
@@ -9,14 +12,26 @@
 #include "llvm/Support/raw_ostream.h"
 
 #include <fmt/format.h>
-#include <numbers>
+
+#include <exception>
 #include <iostream>
+#include <numbers>
+#include <optional>
+#include <unistd.h>
+#include <utility>
 
 namespace revbound::tool {
 
 void addInputOptions(CLI::App &Cmd, InputOptions &O) {
-  Cmd.add_option("files", O.Files, "OpenQASM 2.0 files ('-' for standard input)")
+  Cmd.add_option("files", O.Files,
+                 "OpenQASM 2.0 files ('-' for standard input); a folder stands "
+                 "for the .qasm files under it, in sorted order")
       ->required();
+  Cmd.add_option("--jobs,-j", O.Jobs,
+                 "files analysed at once (default: the number of cores); "
+                 "the output is the same for every value")
+      ->check(CLI::Range(1u, 1024u))
+      ->capture_default_str();
   Cmd.add_option("--include-path,-I", O.IncludePaths,
                  "folder searched for includes and allowed as an include root");
   Cmd.add_flag("--allow-include-escape", O.AllowIncludeEscape,
@@ -206,85 +221,184 @@ llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O) {
   return A;
 }
 
-int analyzeAll(const InputOptions &O, report::Report &Out) {
-  llvm::Expected<qasm::FrontendOptions> FrontOrErr = frontendOptions(O);
-  llvm::Expected<report::AnalysisOptions> AnalysisOrErr = analysisOptions(O);
-  if (!FrontOrErr || !AnalysisOrErr) {
-    llvm::Error E = FrontOrErr ? AnalysisOrErr.takeError() : FrontOrErr.takeError();
-    if (!FrontOrErr && !AnalysisOrErr)
-      llvm::consumeError(AnalysisOrErr.takeError()); // one message is enough
-    // Messages from files already say "file:line:col: error:".
-    std::string Message = llvm::toString(std::move(E));
-    if (Message.find(": error: ") == std::string::npos)
-      Message = "revbound: error: " + Message;
-    std::cerr << Message << "\n";
-    return ExitBadInput;
-  }
-  const qasm::FrontendOptions &Front = *FrontOrErr;
-  const report::AnalysisOptions &Analysis = *AnalysisOrErr;
-  int Status = ExitOk;
-  for (const std::string &File : O.Files) {
+/// A usage error about the options as a whole: one line on stderr.
+static int optionsError(llvm::Error E) {
+  // Messages from files already say "file:line:col: error:".
+  std::string Message = llvm::toString(std::move(E));
+  if (Message.find(": error: ") == std::string::npos)
+    Message = "revbound: error: " + Message;
+  std::cerr << Message << "\n";
+  return ExitBadInput;
+}
+
+namespace {
+
+/// What one file leaves: its report (none when it failed), and its
+/// diagnostics and warnings as they will be printed.
+struct FileOutcome {
+  std::optional<report::CircuitReport> Report;
+  std::string Messages;
+  std::exception_ptr Crash; // rethrown on the calling thread, in order
+};
+
+} // namespace
+
+static FileOutcome analyzeOne(const std::string &File, const InputOptions &O,
+                              const qasm::FrontendOptions &Front,
+                              const report::AnalysisOptions &Analysis) {
+  FileOutcome Out;
+  try {
     SourceFiles Files(sourceOptions(O));
     DiagnosticSink Warnings;
     llvm::Expected<report::CircuitReport> R =
         report::analyzeFile(Files, File, Front, Analysis, Warnings);
     for (const Diagnostic &W : Warnings.warnings())
-      std::cerr << formatDiagnostic(Files.mgr(), W);
+      Out.Messages += formatDiagnostic(Files.mgr(), W);
     if (!R) {
       llvm::handleAllErrors(
           R.takeError(),
           [&](const DiagnosticError &E) {
-            std::cerr << formatDiagnostic(Files.mgr(), E.diagnostic());
+            Out.Messages += formatDiagnostic(Files.mgr(), E.diagnostic());
           },
           [&](const llvm::ErrorInfoBase &E) {
             // Errors without a place in a file: a --role naming no register,
             // an engine that cannot run.
-            std::cerr << fmt::format("{}: error: {}\n",
-                                     File == "-" ? "<stdin>" : File,
-                                     E.message());
+            Out.Messages += fmt::format(
+                "{}: error: {}\n", File == "-" ? "<stdin>" : File, E.message());
           });
-      Status = ExitBadInput;
-      continue;
+      return Out;
     }
     for (const report::Finding &F : R->Warnings)
       if (F.At.Line == 0)
-        std::cerr << fmt::format("{}: warning: {}\n", F.At.File, F.Message);
-    Out.Circuits.push_back(std::move(*R));
+        Out.Messages += fmt::format("{}: warning: {}\n", F.At.File, F.Message);
+    Out.Report = std::move(*R);
+  } catch (...) {
+    Out.Crash = std::current_exception();
   }
+  return Out;
+}
+
+int analyzeEach(const InputOptions &O,
+                llvm::function_ref<bool(report::CircuitReport &&)> Take) {
+  llvm::Expected<qasm::FrontendOptions> FrontOrErr = frontendOptions(O);
+  llvm::Expected<report::AnalysisOptions> AnalysisOrErr = analysisOptions(O);
+  if (!FrontOrErr || !AnalysisOrErr) {
+    llvm::Error E =
+        FrontOrErr ? AnalysisOrErr.takeError() : FrontOrErr.takeError();
+    if (!FrontOrErr && !AnalysisOrErr)
+      llvm::consumeError(AnalysisOrErr.takeError()); // one message is enough
+    return optionsError(std::move(E));
+  }
+  llvm::Expected<std::vector<std::string>> Paths = expandInputs(O.Files);
+  if (!Paths)
+    return optionsError(Paths.takeError());
+  const qasm::FrontendOptions &Front = *FrontOrErr;
+  const report::AnalysisOptions &Analysis = *AnalysisOrErr;
+  // A few results per thread may wait for a slow earlier file; slot I of
+  // the ring holds file I until it is taken.
+  std::vector<FileOutcome> Ring(
+      std::min<size_t>(Paths->size(), size_t(4) * std::max(1u, O.Jobs)));
+  ProgressLine Progress(Paths->size(), ::isatty(STDERR_FILENO) == 1, std::cerr);
+  size_t Done = 0;
+  int Status = ExitOk;
+  runOrdered(
+      Paths->size(), O.Jobs, Ring.size(),
+      [&](size_t I) {
+        Ring[I % Ring.size()] = analyzeOne((*Paths)[I], O, Front, Analysis);
+      },
+      [&](size_t I) {
+        FileOutcome Out = std::exchange(Ring[I % Ring.size()], FileOutcome());
+        ++Done;
+        if (Out.Crash) {
+          Progress.clear();
+          std::rethrow_exception(Out.Crash);
+        }
+        if (!Out.Messages.empty()) {
+          Progress.clear();
+          std::cerr << Out.Messages << std::flush;
+        }
+        Progress.show(Done);
+        if (!Out.Report) {
+          Status = ExitBadInput;
+          return true;
+        }
+        return Take(std::move(*Out.Report));
+      },
+      [&] { Progress.show(Done); });
+  Progress.clear();
   return Status;
 }
 
-int writeOutput(const std::string &Path, const std::string &Text) {
-  if (Path.empty() || Path == "-") {
-    std::cout << Text;
-    std::cout.flush();
-    return std::cout ? ExitOk : ExitInternal;
-  }
-  llvm::SmallString<256> Temp;
+int analyzeAll(const InputOptions &O, report::Report &Out) {
+  return analyzeEach(O, [&](report::CircuitReport &&C) {
+    Out.Circuits.push_back(std::move(C));
+    return true;
+  });
+}
+
+OutputStream::~OutputStream() {
+  if (!File)
+    return;
+  File->clear_error(); // raw_fd_ostream aborts on an unchecked error
+  File.reset();
+  llvm::sys::fs::remove(Temp);
+}
+
+int OutputStream::open(const std::string &P) {
+  Path = P;
+  if (Path.empty() || Path == "-")
+    return ExitOk;
   llvm::SmallString<256> Model(Path);
   Model += ".tmp-%%%%%%";
   int FD;
   if (std::error_code EC = llvm::sys::fs::createUniqueFile(Model, FD, Temp)) {
-    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path, EC.message());
+    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path,
+                             EC.message());
     return ExitBadInput;
   }
-  {
-    llvm::raw_fd_ostream OS(FD, /*shouldClose=*/true);
-    OS << Text;
-    OS.close();
-    if (OS.has_error()) {
-      llvm::sys::fs::remove(Temp);
-      std::cerr << fmt::format("error: cannot write '{}'\n", Path);
-      OS.clear_error();
-      return ExitBadInput;
-    }
+  File = std::make_unique<llvm::raw_fd_ostream>(FD, /*shouldClose=*/true);
+  return ExitOk;
+}
+
+bool OutputStream::write(llvm::StringRef Text) {
+  if (!File) {
+    std::cout.write(Text.data(), std::streamsize(Text.size()));
+    std::cout.flush();
+    return bool(std::cout);
+  }
+  *File << Text;
+  return !File->has_error();
+}
+
+int OutputStream::commit() {
+  if (!File) {
+    std::cout.flush();
+    return std::cout ? ExitOk : ExitInternal;
+  }
+  File->close();
+  bool Failed = File->has_error();
+  File->clear_error();
+  File.reset();
+  if (Failed) {
+    llvm::sys::fs::remove(Temp);
+    std::cerr << fmt::format("error: cannot write '{}'\n", Path);
+    return ExitBadInput;
   }
   if (std::error_code EC = llvm::sys::fs::rename(Temp, Path)) {
     llvm::sys::fs::remove(Temp);
-    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path, EC.message());
+    std::cerr << fmt::format("error: cannot write '{}': {}\n", Path,
+                             EC.message());
     return ExitBadInput;
   }
   return ExitOk;
+}
+
+int writeOutput(const std::string &Path, const std::string &Text) {
+  OutputStream Out;
+  if (int Status = Out.open(Path); Status != ExitOk)
+    return Status;
+  Out.write(Text); // a failure shows in commit()
+  return Out.commit();
 }
 
 } // namespace revbound::tool

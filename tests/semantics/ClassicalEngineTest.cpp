@@ -15,8 +15,15 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 #include <map>
 #include <random>
+#include <sstream>
+
+#if defined(__GLIBC__)
+#include <malloc.h>
+#endif
 
 using namespace revbound;
 using namespace revbound::semantics;
@@ -813,6 +820,36 @@ TEST(ClassicalEngine, SampledSuperpositionLeavesTheAncillaOpen) {
   EXPECT_NE(L.Notes[1].find("over-approximated"), std::string::npos);
 }
 
+// Checks that the sampling fallback never calls a value constant from its
+// samples: the AND of 20 uniform inputs is 1 with probability 2^-20, so
+// all 4096 sampled lanes very likely hold 0, yet the reset of it erases
+// H2(2^-20) > 0 bits (Shannon) and must stay an interval. Resets that
+// constant propagation proves (a fresh qubit, a qubit just reset) stay
+// constant.
+TEST(ClassicalEngine, SampledZerosAreNotAProof) {
+  std::string S = Header + "qreg x[20];\nqreg a[19];\nqreg z[1];\n"
+                           "ccx x[0],x[1],a[0];\n";
+  for (unsigned I = 1; I < 19; ++I)
+    S += fmt::format("ccx a[{}],x[{}],a[{}];\n", I - 1, I + 1, I);
+  S += "reset a[18];\nreset a[18];\nreset z[0];\n";
+  test::Elaborated E = withRoles(S, {{"x", Input}});
+  ASSERT_TRUE(E.Circuit);
+  EngineOptions Tiny;
+  Tiny.MaxBddNodes = 40;
+  Ledger L = runClassical(*E.Circuit, Tiny);
+  ASSERT_FALSE(L.Notes.empty());
+  EXPECT_NE(L.Notes[0].find("figures from 4096 random inputs"),
+            std::string::npos)
+      << L.Notes[0];
+  ASSERT_EQ(L.Events.size(), 3u);
+  EXPECT_EQ(L.Events[0].Status, ErasureStatus::Unknown);
+  EXPECT_EQ(L.Events[0].BitsLow, 0);
+  EXPECT_EQ(L.Events[0].BitsHigh, 1);
+  EXPECT_EQ(L.Events[0].Samples, 4096u);
+  EXPECT_EQ(L.Events[1].Status, ErasureStatus::Constant);
+  EXPECT_EQ(L.Events[2].Status, ErasureStatus::Constant);
+}
+
 /// The inner product of a and b (N pairs) into t, with every a touched
 /// before every b, which puts the a variables first in the BDD order: then
 /// the function has 5 2^(N-1) - 3 nodes (a BDD must remember which a_i are
@@ -895,6 +932,111 @@ TEST(ClassicalEngine, TooManyFreshVariablesFallBackToSampling) {
   ASSERT_TRUE(D);
   EXPECT_EQ(D->Status, ErasureStatus::Unknown);
   EXPECT_GT(D->Samples, 0u);
+}
+
+//===----------------------------------------------------------------------===//
+// BuDDy's collections after the variable set grows
+//===----------------------------------------------------------------------===//
+
+/// While alive, glibc fills every block malloc hands out with 0x5a bytes
+/// (mallopt(3), M_PERTURB; the byte given is inverted on allocation), so
+/// that memory read before anyone wrote it holds 0x5a5a5a5a instead of
+/// whatever the heap held before. Elsewhere it does nothing.
+class PerturbedHeap {
+public:
+  PerturbedHeap() {
+#if defined(__GLIBC__) && defined(M_PERTURB)
+    mallopt(M_PERTURB, 0xa5);
+#endif
+  }
+  ~PerturbedHeap() {
+#if defined(__GLIBC__) && defined(M_PERTURB)
+    mallopt(M_PERTURB, 0);
+#endif
+  }
+  PerturbedHeap(const PerturbedHeap &) = delete;
+  PerturbedHeap &operator=(const PerturbedHeap &) = delete;
+};
+
+/// `Inputs` input qubits nothing touches, then `Fresh` Hadamards each
+/// xor-ed into t (a parity chain of fresh variables, one level deeper per
+/// step), then a copy of x[0] into g.
+std::string freshParityChain(unsigned Inputs, unsigned Fresh) {
+  std::string S = Header + fmt::format("qreg x[{}];\nqreg f[1];\nqreg t[1];\n"
+                                       "qreg g[1];\n",
+                                       Inputs);
+  for (unsigned I = 0; I < Fresh; ++I)
+    S += "h f[0];\ncx f[0],t[0];\n";
+  return S + "cx x[0],g[0];\n";
+}
+
+// Checks the engine across BuDDy collections that follow a growth of the
+// variable set. BuDDy 2.4's bdd_extvarnum mallocs a new node reference
+// stack, and its operations reserve a slot on it before computing what goes
+// there, so a collection inside an operation read uninitialised memory and
+// crashed in bdd_mark in some runs (BuddySession.cpp, clearUnwrittenRefs).
+// With the heap perturbed the unwritten slots hold 0x5a5a5a5a, and without
+// the workaround both circuits crash every time (each grows the variables
+// from N to 2N at the first Hadamard and to 4N after N more, and collects
+// inside the next xor). The figures are common practice: g holds a copy of
+// a uniform input, 1 bit (Shannon); t depends on fresh variables only, so
+// it is an interval [0, 1] and the note counts the Hadamards.
+TEST(ClassicalEngine, CollectionsAfterVariableGrowthSurviveAPerturbedHeap) {
+  for (unsigned N : {2500u, 3000u}) {
+    SCOPED_TRACE(N);
+    test::Elaborated E = withRoles(freshParityChain(N, N + 10),
+                                   {{"x", Input}, {"t", Garbage},
+                                    {"g", Garbage}});
+    ASSERT_TRUE(E.Circuit);
+    Ledger L;
+    {
+      PerturbedHeap Perturbed;
+      L = runClassical(*E.Circuit, {});
+    }
+    ASSERT_EQ(L.Notes.size(), 1u);
+    EXPECT_EQ(L.Notes[0].rfind(fmt::format("{} gates that make superpositions",
+                                           N + 10),
+                               0),
+              0u)
+        << L.Notes[0];
+    ASSERT_EQ(L.Events.size(), 2u);
+    const ErasureEvent &T = L.Events[0], &G = L.Events[1];
+    EXPECT_EQ(T.Kind, ErasureKind::Discard);
+    EXPECT_EQ(T.Status, ErasureStatus::Unknown);
+    EXPECT_EQ(T.BitsLow, 0);
+    EXPECT_EQ(T.BitsHigh, 1);
+    EXPECT_EQ(G.Kind, ErasureKind::Discard);
+    EXPECT_EQ(G.Status, ErasureStatus::Exact);
+    EXPECT_DOUBLE_EQ(G.BitsLow, 1.0);
+  }
+}
+
+// Checks the circuit that showed the crash: bwt_n21 of the QASMBench suite
+// in the shared folder, 9207 resets, no roles and no `if`, with 4800
+// Hadamards and so as many fresh variables. With the heap perturbed every
+// run crashed before the workaround; now the BDD pass runs until its work
+// limit and the sampling fallback lists every reset, each of which runs.
+TEST(ClassicalEngine, BwtN21SurvivesAPerturbedHeap) {
+  namespace fs = std::filesystem;
+  fs::path File = fs::path(test::sharedDir()) /
+                  "benchmarks/qasmbench/medium/bwt_n21/bwt_n21.qasm";
+  if (!fs::exists(File))
+    GTEST_SKIP() << "the shared benchmarks are not at " << File
+                 << " (set REVBOUND_SHARED_DIR)";
+  std::ifstream In(File);
+  std::stringstream Text;
+  Text << In.rdbuf();
+  test::Elaborated E = test::elaborate(Text.str());
+  ASSERT_TRUE(E.Circuit) << E.Error;
+  Ledger L;
+  {
+    PerturbedHeap Perturbed;
+    L = runClassical(*E.Circuit, {});
+  }
+  EXPECT_EQ(L.Engine, EngineKind::Classical);
+  EXPECT_EQ(L.Events.size(), 9207u); // `grep -c '^reset'` on the file
+  for (const ErasureEvent &Ev : L.Events)
+    EXPECT_EQ(Ev.Kind, ErasureKind::Reset);
 }
 
 //===----------------------------------------------------------------------===//

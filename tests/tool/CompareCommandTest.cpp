@@ -12,6 +12,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cstring>
 
 namespace revbound::test {
@@ -184,6 +185,32 @@ TEST_F(CompareCommand, MarkdownIsATable) {
   EXPECT_NE(R.Out.find("| gates |  | **13** | 27 +14 (+107.7%) |"),
             std::string::npos)
       << R.Out;
+}
+
+// `report --format csv|markdown` print the same figures as compare, without
+// changes: one CSV line per circuit, one Markdown row per metric.
+TEST_F(CompareCommand, ReportTablesShareTheMetrics) {
+  Outcome Csv = invoke("report ref.qasm ct.qasm --format csv");
+  ASSERT_EQ(Csv.Exit, 0) << Csv.Err;
+  std::vector<std::string> L = lines(Csv.Out, "\r\n");
+  ASSERT_EQ(L.size(), 3u) << Csv.Out;
+  std::vector<std::string> Keys = csvFields(L[0]);
+  ASSERT_GE(Keys.size(), 4u);
+  EXPECT_EQ(Keys[0], "file");
+  auto Column = [&](const std::string &Key) {
+    return size_t(std::find(Keys.begin(), Keys.end(), Key) - Keys.begin());
+  };
+  ASSERT_LT(Column("gates"), Keys.size());
+  ASSERT_LT(Column("t_count"), Keys.size());
+  std::vector<std::string> Ct = csvFields(L[2]);
+  ASSERT_EQ(Ct.size(), Keys.size());
+  EXPECT_EQ(Ct[0], "ct.qasm");
+  EXPECT_EQ(Ct[Column("gates")], "27");
+  EXPECT_EQ(Ct[Column("t_count")], "7");
+
+  Outcome Md = invoke("report ref.qasm ct.qasm --format markdown");
+  ASSERT_EQ(Md.Exit, 0) << Md.Err;
+  EXPECT_NE(Md.Out.find("| gates |  | 13 | 27 |"), std::string::npos) << Md.Out;
 }
 
 } // namespace

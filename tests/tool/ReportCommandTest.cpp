@@ -162,7 +162,7 @@ TEST_F(ReportCommand, UnknownNativeNameAndCommand) {
                    "a gate the file defines\n");
   R = invoke("frob bell.qasm");
   EXPECT_EQ(R.Exit, 2);
-  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report gates check\n");
+  EXPECT_EQ(R.Err, "revbound: unknown command 'frob'; expected one of: report gates check compare\n");
 }
 
 TEST_F(ReportCommand, OpaqueGatesInThePrimitiveCounts) {

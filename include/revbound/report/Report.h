@@ -10,6 +10,7 @@
 #include "revbound/analysis/Census.h"
 #include "revbound/analysis/LeafPolicy.h"
 #include "revbound/analysis/DeviceSchedule.h"
+#include "revbound/analysis/EnergyFrontier.h"
 #include "revbound/analysis/SpeedBounds.h"
 #include "revbound/qasm/Frontend.h"
 #include "revbound/semantics/Engines.h"
@@ -55,6 +56,7 @@ struct SpeedReport {
   analysis::EnergyOptions Energy; // as given
   analysis::SpeedBounds Bounds;
   std::optional<analysis::DeviceComparison> Device; // with --durations
+  analysis::EnergyFrontier Frontier; // least time against energy, sampled
 };
 
 /// One erasure of DESIGN.md's ledger, located.
@@ -66,6 +68,19 @@ struct ErasureEntry {
   double BitsLow = 0, BitsHigh = 0;
   uint64_t Samples = 0;   // nonzero: BitsEstimate is sampled, not a bound
   double BitsEstimate = 0;
+  /// The depth.all layer the operation starts in (0-based); a discard
+  /// happens after the last layer, at layer depth.all.
+  uint64_t Layer = 0;
+};
+
+/// The erasures of one source line (file:line of the events' At): where a
+/// circuit erases most. Sums of the events' own intervals (for discards,
+/// their marginals, so BitsHigh stays an upper bound on what they remove).
+struct ErasureHotspot {
+  std::string File;
+  unsigned Line = 0;
+  uint64_t Events = 0;
+  double BitsLow = 0, BitsHigh = 0;
 };
 
 struct AncillaEntry {
@@ -86,6 +101,8 @@ struct ErasureReport {
   semantics::BitInterval Entropy;      // every event, discards jointly
   semantics::BitInterval DiscardJoint; // the discard at the end alone
   std::vector<ErasureEntry> List;
+  /// By BitsHigh, then BitsLow, then Events (largest first), then file, line.
+  std::vector<ErasureHotspot> Hotspots;
   std::vector<AncillaEntry> Ancillas;
   std::vector<std::string> Notes;
   double TemperatureK = 300;

@@ -20,6 +20,11 @@ std::string writeText(const Report &R);
 /// documented in docs/json.md; counts are JSON integers, exact past 2^53.
 std::string writeJson(const Report &R);
 
+/// One circuit as one line of JSON Lines (`--format jsonl`): the object
+/// writeJson puts in "circuits", with the "schema" member first, compact,
+/// ending in '\n'. A batch is written line by line as results come.
+std::string writeJsonLine(const CircuitReport &C);
+
 } // namespace revbound::report
 
 #endif

@@ -26,3 +26,7 @@ write_basic_package_version_file(
 install(FILES ${PROJECT_BINARY_DIR}/revboundConfig.cmake
               ${PROJECT_BINARY_DIR}/revboundConfigVersion.cmake
         DESTINATION ${REVBOUND_INSTALL_CMAKEDIR})
+
+# The man page (docs/revbound.1).
+install(FILES ${PROJECT_SOURCE_DIR}/docs/revbound.1
+  DESTINATION ${CMAKE_INSTALL_MANDIR}/man1)

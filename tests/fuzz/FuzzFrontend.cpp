@@ -1,8 +1,9 @@
 //===- FuzzFrontend.cpp - libFuzzer entry over the whole pipeline ---------===//
 //
-// Lexer, parser, elaboration and the structural analyses on arbitrary
-// bytes. Any crash, sanitizer report or timeout is a finding; each one found
-// becomes a case in tests/tool/MutationTest.cpp or the front-end tests.
+// Lexer, parser, elaboration and report::analyzeCircuit (the structural
+// analyses and the auto engine, with small limits) on arbitrary bytes. Any
+// crash, sanitizer report or timeout is a finding; each one found becomes a
+// file under tests/fuzz/regressions/frontend/ (README.md).
 //
 //===----------------------------------------------------------------------===//
 #include "revbound/qasm/Frontend.h"
@@ -32,6 +33,16 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
   }
   report::AnalysisOptions Opts;
   Opts.MaxDagNodes = 20000;
+  // analyzeCircuit runs the auto engine too. Its default bounds allow
+  // seconds of density simulation in a release build, which is tens of
+  // seconds under the sanitizers (regressions/frontend/density_branches.qasm);
+  // FuzzEngines.cpp fuzzes the engines with limits like these.
+  Opts.Engine.MaxDensityQubits = 8;
+  Opts.Engine.MaxAutoDensityWork = uint64_t(1) << 24;
+  Opts.Engine.MaxAutoClassicalOps = 20'000;
+  Opts.Engine.MaxBddNodes = uint64_t(1) << 16;
+  Opts.Engine.MaxExpandedOps = 100'000;
+  Opts.Engine.Samples = 64;
   llvm::Expected<report::CircuitReport> R =
       report::analyzeCircuit(*C, Files, "fuzz.qasm", Opts);
   if (!R)

@@ -4,10 +4,13 @@
 // duplicated, huge numbers, NULs, deep nesting) go through the whole
 // pipeline in-process. Each must end with a report or a diagnostic, within
 // a few seconds, never a crash; under the sanitizer build (.ci/run) memory
-// errors and undefined behaviour fail the test too.
+// errors and undefined behaviour fail the test too. A second test runs the
+// revbound executable with `--engine classical` and `--engine density` on
+// mutants of circuits with role annotations: exit 0 or 2, within seconds.
 //
 //===----------------------------------------------------------------------===//
 #include "TestSupport.h"
+#include "ToolRunner.h"
 
 #include <gtest/gtest.h>
 
@@ -16,6 +19,7 @@
 #include <fstream>
 #include <random>
 #include <sstream>
+#include <sys/wait.h>
 
 using namespace revbound;
 namespace fs = std::filesystem;
@@ -41,6 +45,28 @@ std::vector<std::string> seeds() {
         Out.push_back(S.str());
       }
   return Out;
+}
+
+/// Circuits whose `//!` roles (docs/formats.md) give the engines inputs,
+/// ancillas and garbage to decide, with resets, measurements and an `if`.
+std::vector<std::string> roleSeeds() {
+  return {
+      "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+      "//! input a, b\n//! ancilla anc\n//! garbage g\n"
+      "qreg a[2];\nqreg b[1];\nqreg anc[1];\nqreg g[1];\n"
+      "creg c[2];\nccx a[0],a[1],anc[0];\ncx anc[0],b[0];\n"
+      "ccx a[0],a[1],anc[0];\ncx a[0],g[0];\ncswap b[0],a[0],a[1];\n"
+      "measure a[0] -> c[0];\nmeasure a[0] -> c[0];\nreset b[0];\n"
+      "if(c==1) x b[0];\n",
+      "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n//! input x\n//! ancilla w\n"
+      "qreg x[2];\nqreg w[1];\ncreg m[1];\nh x[0];\ncx x[0],w[0];\n"
+      "rz(pi/4) w[0];\nmeasure w[0] -> m[0];\nreset w[0];\nh w[0];\n",
+      "OPENQASM 2.0;\ngate g0 a { U(0,0,pi/4) a; }\n"
+      "gate g1 a, b { g0 a; CX a, b; g0 b; }\n"
+      "gate g2 a, b { g1 a, b; g1 b, a; }\n"
+      "//! ancilla q[1]\n//! input q[0]\nqreg q[3];\ncreg c[3];\n"
+      "g2 q[0], q[1];\ng2 q[1], q[2];\nmeasure q -> c;\nreset q;\n",
+  };
 }
 
 std::string mutate(std::string Text, std::mt19937 &Rng) {
@@ -108,4 +134,52 @@ TEST(Mutation, EveryMutantEndsWithAReportOrADiagnostic) {
   // Both outcomes occur, so the mutations are neither all fatal nor idle.
   EXPECT_GT(Reports, 50);
   EXPECT_GT(Diagnostics, 50);
+}
+
+// The driver, as users run it, with each explicit engine on mutants of
+// circuits with roles (and of the shared examples): every run ends with a
+// report (exit 0) or a diagnostic (exit 2, DESIGN.md "Exit codes"), never
+// a crash (a signal), an internal error (3) or a hang. `timeout` (GNU
+// coreutils) stops a hung run after 60 s, which fails the exit-code check.
+class MutationTool : public test::ToolTest {};
+
+TEST_F(MutationTool, ExplicitEnginesExitZeroOrTwo) {
+  std::vector<std::string> Seeds = roleSeeds();
+  for (std::string &S : seeds())
+    Seeds.push_back(std::move(S));
+  std::mt19937 Rng(11);
+  int Exit0 = 0, Exit2 = 0;
+  for (int I = 0; I < 100; ++I) {
+    std::string Text = mutate(Seeds[I % Seeds.size()], Rng);
+    fs::path File = write("m.qasm", Text);
+    for (const char *Engine : {"classical", "density"}) {
+      std::string Cmd = "timeout -k 5 60 '" REVBOUND_BINARY
+                        "' report --format json --max-qubits 4096 --engine " +
+                        std::string(Engine) + " '" + File.string() + "' >'" +
+                        (Dir / "out.txt").string() + "' 2>'" +
+                        (Dir / "err.txt").string() + "'";
+      auto Start = std::chrono::steady_clock::now();
+      int Status = std::system(Cmd.c_str());
+      double Seconds = std::chrono::duration<double>(
+                           std::chrono::steady_clock::now() - Start)
+                           .count();
+      int Exit = WIFEXITED(Status) ? WEXITSTATUS(Status) : -1;
+      std::string Err = test::slurp(Dir / "err.txt");
+      EXPECT_TRUE(Exit == 0 || Exit == 2)
+          << "mutant " << I << " with --engine " << Engine << ": exit "
+          << Exit << "\n"
+          << Err << "\n--- input ---\n"
+          << Text;
+      if (Exit == 2)
+        EXPECT_NE(Err.find("error: "), std::string::npos) << Err;
+      Exit0 += Exit == 0;
+      Exit2 += Exit == 2;
+      EXPECT_LT(Seconds, 10.0) << "mutant " << I << " with --engine "
+                               << Engine << " took " << Seconds << " s";
+    }
+  }
+  // Both outcomes occur, so the mutations are neither all fatal nor idle
+  // (about one mutant in twelve still reads).
+  EXPECT_GT(Exit0, 5);
+  EXPECT_GT(Exit2, 5);
 }

@@ -64,4 +64,21 @@ std::optional<WireRole> parseWireRole(llvm::StringRef Name) {
 std::string Circuit::qubitName(uint32_t Q) const { return wireName(QRegs, Q); }
 std::string Circuit::clbitName(uint32_t C) const { return wireName(CRegs, C); }
 
+std::vector<std::pair<std::string, std::string>>
+Circuit::inputRegisterBits(const std::vector<bool> &ValueByQubit) const {
+  std::vector<std::pair<std::string, std::string>> Out;
+  for (const Register &R : QRegs) {
+    bool AnyInput = false;
+    std::string Bits(R.Size, '0');
+    for (uint32_t K = 0; K < R.Size; ++K) {
+      AnyInput |= role(R.Offset + K) == WireRole::Input;
+      if (R.Offset + K < ValueByQubit.size() && ValueByQubit[R.Offset + K])
+        Bits[R.Size - 1 - K] = '1';
+    }
+    if (AnyInput)
+      Out.emplace_back(R.Name, std::move(Bits));
+  }
+  return Out;
+}
+
 } // namespace revbound::ir

@@ -1,6 +1,8 @@
 //===- CheckWriters.cpp - A CheckReport as text, SARIF, JUnit, Markdown ---===//
 #include "revbound/policy/CheckWriters.h"
 
+#include "revbound/support/Text.h"
+
 #include "llvm/Support/Path.h"
 
 #include <fmt/format.h>
@@ -47,68 +49,6 @@ std::string verdictLine(const CheckReport &R) {
   return fmt::format("passed: {} of {} held in {}{}", R.Passed,
                      plural(Total, "check", "checks"), Files,
                      Skipped.empty() ? "" : " (" + Skipped + ")");
-}
-
-/// Valid UTF-8 with every ill-formed sequence replaced by U+FFFD, so that
-/// XML and Markdown readers never reject a strange file name.
-std::string validUtf8(llvm::StringRef S) {
-  std::string Out;
-  for (size_t I = 0; I < S.size();) {
-    unsigned char C = S[I];
-    unsigned Len = C < 0x80           ? 1
-                   : (C >> 5) == 0x6  ? 2
-                   : (C >> 4) == 0xE  ? 3
-                   : (C >> 3) == 0x1E ? 4
-                                      : 0;
-    bool Ok = Len != 0 && I + Len <= S.size() && !(Len == 2 && C < 0xC2);
-    for (unsigned K = 1; Ok && K < Len; ++K)
-      Ok = (static_cast<unsigned char>(S[I + K]) & 0xC0) == 0x80;
-    if (Ok && Len >= 3) {
-      unsigned char D = S[I + 1];
-      Ok = !(C == 0xE0 && D < 0xA0) && !(C == 0xED && D >= 0xA0) &&
-           !(C == 0xF0 && D < 0x90) && !(C == 0xF4 && D >= 0x90) && C <= 0xF4;
-    }
-    if (!Ok) {
-      Out += "\xEF\xBF\xBD";
-      ++I;
-      continue;
-    }
-    Out.append(S.data() + I, Len);
-    I += Len;
-  }
-  return Out;
-}
-
-/// Text for XML attributes and content. XML 1.0 allows no control
-/// characters but tab, line feed and carriage return.
-std::string xmlEscape(llvm::StringRef S) {
-  std::string Out;
-  for (char C : validUtf8(S)) {
-    switch (C) {
-    case '&':
-      Out += "&amp;";
-      break;
-    case '<':
-      Out += "&lt;";
-      break;
-    case '>':
-      Out += "&gt;";
-      break;
-    case '"':
-      Out += "&quot;";
-      break;
-    case '\'':
-      Out += "&apos;";
-      break;
-    default:
-      if (static_cast<unsigned char>(C) < 0x20 && C != '\t' && C != '\n' &&
-          C != '\r')
-        Out += "\xEF\xBF\xBD";
-      else
-        Out += C;
-    }
-  }
-  return Out;
 }
 
 /// Text for one Markdown table cell: no line breaks, no column bars, no

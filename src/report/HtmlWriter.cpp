@@ -3,11 +3,12 @@
 
 #include "SvgPlot.h"
 
+#include "revbound/support/Text.h"
+
 #include <fmt/format.h>
 
 namespace revbound::report {
 
-using markup::escape;
 using markup::figure;
 
 namespace {
@@ -90,7 +91,7 @@ std::string orDash(const std::optional<double> &V) {
 }
 
 std::string where(const SourcePoint &P) {
-  return fmt::format("{}:{}:{}", escape(P.File), P.Line, P.Column);
+  return fmt::format("{}:{}:{}", xmlEscape(P.File), P.Line, P.Column);
 }
 
 void summaryTable(const Report &R, std::string &Out) {
@@ -116,7 +117,7 @@ void summaryTable(const Report &R, std::string &Out) {
         "<tr><td class=\"name\"><a href=\"#circuit-{}\">{}</a></td><td>{}</td>"
         "<td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td>"
         "<td>{}</td><td>{}</td>",
-        I + 1, escape(C.File), C.Qubits, C.Ops.Gates, C.DepthAll,
+        I + 1, xmlEscape(C.File), C.Qubits, C.Ops.Gates, C.DepthAll,
         C.DepthTwoQubit, C.Ops.TCount, E.Events,
         bitsText(E.Entropy.Low, E.Entropy.High),
         bitsText(E.HeatLowJ, E.HeatHighJ), figure(C.Speed.Bounds.ActionJs));
@@ -145,9 +146,9 @@ void pathListing(const CriticalPath &P, std::string &Out) {
   for (const PathStep &S : P.Listed) {
     std::string Wires;
     for (const std::string &W : S.Wires)
-      Wires += (Wires.empty() ? "" : ", ") + escape(W);
+      Wires += (Wires.empty() ? "" : ", ") + xmlEscape(W);
     Out += fmt::format("<li><code>{}</code> {} <span class=\"where\">{}",
-                       escape(S.Gate), Wires, where(S.At));
+                       xmlEscape(S.Gate), Wires, where(S.At));
     if (S.Inside.Line != 0)
       Out += fmt::format(", in the body at {}", where(S.Inside));
     Out += "</span></li>\n";
@@ -173,7 +174,7 @@ void hotspotTable(const ErasureReport &E, std::string &Out) {
       break;
     Out += fmt::format("<tr><td class=\"name\"><code>{}:{}</code></td><td>{}"
                        "</td><td>{}</td></tr>\n",
-                       escape(H.File), H.Line, H.Events,
+                       xmlEscape(H.File), H.Line, H.Events,
                        bitsText(H.BitsLow, H.BitsHigh));
   }
   Out += "</tbody></table></div>\n";
@@ -192,12 +193,12 @@ void ancillaList(const ErasureReport &E, std::string &Out) {
     const char *Verdict = !A.Clean   ? "not decided"
                           : *A.Clean ? "returns to |0&#10217;"
                                      : "left dirty";
-    Out += fmt::format("<li><code>{}</code> {}", escape(A.Wire), Verdict);
+    Out += fmt::format("<li><code>{}</code> {}", xmlEscape(A.Wire), Verdict);
     if (A.HasCounterexample) {
       std::string Inputs;
       for (const auto &[Register, Bits] : A.Counterexample)
         Inputs += fmt::format("{}{} = {}", Inputs.empty() ? "" : ", ",
-                              escape(Register), escape(Bits));
+                              xmlEscape(Register), xmlEscape(Bits));
       Out += fmt::format(" (ends at 1 for input {})",
                          Inputs.empty() ? std::string("none") : Inputs);
     }
@@ -210,11 +211,11 @@ void circuitSection(const CircuitReport &C, size_t Index, std::string &Out) {
   const ErasureReport &E = C.Erasures;
   Out +=
       fmt::format("<section class=\"card\" id=\"circuit-{}\">\n<h2>{}</h2>\n",
-                  Index + 1, escape(C.File));
+                  Index + 1, xmlEscape(C.File));
   Out += fmt::format("<p class=\"facts\">{} qubits, {} classical bits; {} "
                      "leaves; engine {}; {} K.</p>\n",
-                     C.Qubits, C.Clbits, escape(C.Granularity),
-                     escape(E.Engine), figure(E.TemperatureK));
+                     C.Qubits, C.Clbits, xmlEscape(C.Granularity),
+                     xmlEscape(E.Engine), figure(E.TemperatureK));
   Out += "<h3>Erasure timeline</h3>\n";
   std::string Timeline =
       markup::erasureTimeline(C, MaxTimelineWires, MaxTimelineMarks);
@@ -248,7 +249,7 @@ void circuitSection(const CircuitReport &C, size_t Index, std::string &Out) {
     Out += "<h3>Warnings</h3>\n<ul>\n";
     for (const Finding &F : C.Warnings)
       Out += fmt::format("<li><span class=\"where\">{}</span> {}</li>\n",
-                         where(F.At), escape(F.Message));
+                         where(F.At), xmlEscape(F.Message));
     Out += "</ul>\n";
   }
   Out += "</section>\n";
@@ -264,7 +265,7 @@ std::string writeHtml(const Report &R) {
       "initial-scale=1\"/>\n";
   Out += fmt::format("<title>revbound report: {}</title>\n",
                      R.Circuits.size() == 1
-                         ? escape(R.Circuits[0].File)
+                         ? xmlEscape(R.Circuits[0].File)
                          : fmt::format("{} circuits", R.Circuits.size()));
   Out += fmt::format("<style>{}</style>\n</head>\n<body>\n", Style);
   Out += fmt::format(

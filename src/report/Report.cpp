@@ -97,16 +97,6 @@ static llvm::Error fillPath(const ir::Circuit &C, const SourceFiles &Files,
   return llvm::Error::success();
 }
 
-/// The bit string of register `R` in a counterexample, highest index first.
-static std::string registerBits(const ir::Register &R,
-                                const std::vector<bool> &Value) {
-  std::string Bits(R.Size, '0');
-  for (uint32_t I = 0; I < R.Size; ++I)
-    if (Value[R.Offset + I])
-      Bits[R.Size - 1 - I] = '1';
-  return Bits;
-}
-
 /// True when top-level op `O` is the one erasure event `E` (a reset or an
 /// overwrite) comes from: the engines record the op's location and wire.
 static bool isEventOp(const ir::Circuit &C, const ir::Op &O,
@@ -224,18 +214,9 @@ static llvm::Error fillErasures(const ir::Circuit &C, const SourceFiles &Files,
     X.HasCounterexample = A.HasCounterexample;
     if (A.HasCounterexample) {
       std::vector<bool> Value(C.NumQubits, false);
-      std::vector<bool> IsInput(C.NumQubits, false);
       for (auto [Q, Bit] : A.Counterexample)
         Value[Q] = Bit;
-      for (uint32_t Q = 0; Q < C.NumQubits; ++Q)
-        IsInput[Q] = C.role(Q) == ir::WireRole::Input;
-      for (const ir::Register &R : C.QRegs) {
-        bool AnyInput = false;
-        for (uint32_t I = 0; I < R.Size; ++I)
-          AnyInput |= IsInput[R.Offset + I];
-        if (AnyInput)
-          X.Counterexample.emplace_back(R.Name, registerBits(R, Value));
-      }
+      X.Counterexample = C.inputRegisterBits(Value);
     }
     Out.Ancillas.push_back(std::move(X));
   }

@@ -1,7 +1,7 @@
 //===- SvgPlot.cpp - Markup helpers and the two SVG plots of the HTML page ===//
 #include "SvgPlot.h"
 
-#include "llvm/Support/ConvertUTF.h"
+#include "revbound/support/Text.h"
 
 #include <algorithm>
 #include <cmath>
@@ -10,59 +10,6 @@
 #include <tuple>
 
 namespace revbound::report::markup {
-
-static constexpr const char *Replacement = "\xEF\xBF\xBD"; // U+FFFD
-
-std::string escape(std::string_view Text) {
-  std::string Out;
-  Out.reserve(Text.size());
-  const auto *Bytes = reinterpret_cast<const llvm::UTF8 *>(Text.data());
-  for (size_t I = 0; I < Text.size();) {
-    unsigned char B = Bytes[I];
-    if (B < 0x80) {
-      switch (B) {
-      case '&':
-        Out += "&amp;";
-        break;
-      case '<':
-        Out += "&lt;";
-        break;
-      case '>':
-        Out += "&gt;";
-        break;
-      case '"':
-        Out += "&quot;";
-        break;
-      case '\'':
-        Out += "&#39;";
-        break;
-      default:
-        // XML 1.0 allows no C0 control character but tab, newline, return.
-        if (B < 0x20 && B != '\t' && B != '\n' && B != '\r')
-          Out += Replacement;
-        else
-          Out += char(B);
-      }
-      ++I;
-      continue;
-    }
-    unsigned N = llvm::getNumBytesForUTF8(B);
-    bool Legal = I + N <= Text.size() &&
-                 llvm::isLegalUTF8Sequence(Bytes + I, Bytes + I + N);
-    // U+FFFE and U+FFFF are not XML characters either.
-    if (Legal && N == 3 && B == 0xEF && Bytes[I + 1] == 0xBF &&
-        Bytes[I + 2] >= 0xBE)
-      Legal = false;
-    if (!Legal) {
-      Out += Replacement;
-      ++I;
-      continue;
-    }
-    Out.append(Text.substr(I, N));
-    I += N;
-  }
-  return Out;
-}
 
 std::string figure(double V) { return fmt::format("{:.4g}", V); }
 std::string exact(double V) { return fmt::format("{}", V); }
@@ -121,12 +68,12 @@ std::string mark(const ErasureEntry &X, double Cx, double Cy, double Size) {
       "data-wire=\"{}\" "
       "data-layer=\"{}\" data-bits-low=\"{}\" data-bits-high=\"{}\" "
       "data-status=\"{}\" data-line=\"{}\"",
-      escape(X.Kind), X.Status == "unknown" ? " open" : "", colourOf(X),
-      escape(X.Kind), escape(X.Wire), X.Layer, exact(X.BitsLow),
-      exact(X.BitsHigh), escape(X.Status), X.At.Line);
+      xmlEscape(X.Kind), X.Status == "unknown" ? " open" : "", colourOf(X),
+      xmlEscape(X.Kind), xmlEscape(X.Wire), X.Layer, exact(X.BitsLow),
+      exact(X.BitsHigh), xmlEscape(X.Status), X.At.Line);
   std::string Title = fmt::format(
-      "<title>{} {} at layer {}, {}:{}: {} bits{}</title>", escape(X.Kind),
-      escape(X.Wire), X.Layer, escape(X.At.File), X.At.Line,
+      "<title>{} {} at layer {}, {}:{}: {} bits{}</title>", xmlEscape(X.Kind),
+      xmlEscape(X.Wire), X.Layer, xmlEscape(X.At.File), X.At.Line,
       X.BitsLow == X.BitsHigh ? figure(X.BitsLow)
                               : figure(X.BitsLow) + " to " + figure(X.BitsHigh),
       X.Status == "constant" ? " (proved constant)" : "");
@@ -200,14 +147,14 @@ std::string erasureTimeline(const CircuitReport &C, unsigned MaxWires,
       break;
     double Cy = TimelineTop + (Row + 0.5) * RowHeight;
     Out += fmt::format("<g class=\"wire-row\" data-wire=\"{}\">\n",
-                       escape(List[Events[0]].Wire));
+                       xmlEscape(List[Events[0]].Wire));
     Out += fmt::format("<line class=\"wire\" x1=\"{}\" y1=\"{}\" x2=\"{}\" "
                        "y2=\"{}\"/>\n",
                        px(TimelineX), px(Cy), px(TimelineX + TimelineWidth),
                        px(Cy));
     Out += fmt::format(
         "<text class=\"wire-label\" x=\"{}\" y=\"{}\">{}</text>\n",
-        px(TimelineX - 8), px(Cy + 4), escape(List[Events[0]].Wire));
+        px(TimelineX - 8), px(Cy + 4), xmlEscape(List[Events[0]].Wire));
     for (size_t I : Events) {
       if (Marks == MaxMarks)
         break;

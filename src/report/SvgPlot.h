@@ -16,10 +16,6 @@
 
 namespace revbound::report::markup {
 
-/// `Text` for XML text or a quoted attribute: & < > " ' as references,
-/// bytes that are not UTF-8 and characters XML 1.0 forbids as U+FFFD.
-std::string escape(std::string_view Text);
-
 /// A double for people: 4 significant digits ("3.425e-34", "0.5").
 std::string figure(double V);
 /// A double in the shortest form that reads back to the same double.

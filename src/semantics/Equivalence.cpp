@@ -128,24 +128,10 @@ llvm::Expected<Interface> matchInterfaces(const ir::Circuit &A,
 
 RegisterBits inputBits(const ir::Circuit &A, const Interface &I,
                        const std::vector<bool> &X) {
-  std::vector<bool> Value(A.NumQubits, false), IsInput(A.NumQubits, false);
-  for (size_t K = 0; K < I.Inputs.size(); ++K) {
-    IsInput[I.Inputs[K].first] = true;
-    Value[I.Inputs[K].first] = K < X.size() && X[K];
-  }
-  RegisterBits Out;
-  for (const ir::Register &R : A.QRegs) {
-    bool AnyInput = false;
-    std::string Bits(R.Size, '0');
-    for (uint32_t K = 0; K < R.Size; ++K) {
-      AnyInput |= IsInput[R.Offset + K];
-      if (Value[R.Offset + K])
-        Bits[R.Size - 1 - K] = '1';
-    }
-    if (AnyInput)
-      Out.emplace_back(R.Name, std::move(Bits));
-  }
-  return Out;
+  std::vector<bool> Value(A.NumQubits, false);
+  for (size_t K = 0; K < I.Inputs.size() && K < X.size(); ++K)
+    Value[I.Inputs[K].first] = X[K];
+  return A.inputRegisterBits(Value);
 }
 
 } // namespace equivalence

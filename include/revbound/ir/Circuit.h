@@ -24,6 +24,7 @@
 #include <cstdint>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace revbound::ir {
@@ -167,6 +168,11 @@ public:
   std::string qubitName(uint32_t Q) const;
   /// Name of bit `C` as "reg[i]".
   std::string clbitName(uint32_t C) const;
+  /// For each register holding an input qubit, its name and the bits of
+  /// `ValueByQubit` over it, highest index first (a binary numeral): how
+  /// a basis input is shown.
+  std::vector<std::pair<std::string, std::string>>
+  inputRegisterBits(const std::vector<bool> &ValueByQubit) const;
 };
 
 } // namespace revbound::ir

@@ -21,8 +21,19 @@
 namespace revbound::analysis {
 
 static bool isQuarterTurn(double Angle) {
-  double R = std::remainder(Angle, 2 * std::numbers::pi);
+  // remainder(x, 2 pi) is x itself for |x| <= pi, the usual case.
+  double A = std::fabs(Angle);
+  double R = A <= std::numbers::pi ? A
+                                   : std::remainder(Angle, 2 * std::numbers::pi);
   return std::fabs(std::fabs(R) - std::numbers::pi / 4) < 1e-9;
+}
+
+bool isTByAngle(bool ThreeAngles, llvm::ArrayRef<double> P) {
+  if (!ThreeAngles)
+    return isQuarterTurn(P[0]);
+  // U(0, phi, lambda) = Rz(phi + lambda) up to global phase.
+  return std::fabs(std::remainder(P[0], 2 * std::numbers::pi)) < 1e-9 &&
+         isQuarterTurn(P[1] + P[2]);
 }
 
 bool isTLeaf(const ir::GateDef &G, llvm::ArrayRef<double> P) {
@@ -34,12 +45,10 @@ bool isTLeaf(const ir::GateDef &G, llvm::ArrayRef<double> P) {
   bool Builtin = G.Origin == ir::GateOrigin::Builtin;
   if (Library && (G.Name == "rz" || G.Name == "u1" || G.Name == "p") &&
       P.size() == 1)
-    return isQuarterTurn(P[0]);
-  // U(0, phi, lambda) = Rz(phi + lambda) up to global phase.
+    return isTByAngle(false, P);
   if ((Builtin || (Library && (G.Name == "u3" || G.Name == "u"))) &&
       P.size() == 3)
-    return std::fabs(std::remainder(P[0], 2 * std::numbers::pi)) < 1e-9 &&
-           isQuarterTurn(P[1] + P[2]);
+    return isTByAngle(true, P);
   return false;
 }
 
@@ -63,7 +72,7 @@ SummaryCache::SummaryCache(const ir::Circuit &Circ, const LeafPolicy &P)
     if (!LeafFlags[I] || G.numQubits() != 1)
       continue;
     if (isAngleGate(G) && angleRuleHolds(ir::GateId(I)))
-      TKinds[I] = TKind::ByAngle;
+      TKinds[I] = G.numParams() == 3 ? TKind::ByThreeAngles : TKind::ByAngle;
     else if (G.numParams() > 0)
       TKinds[I] = TKind::ByUnitary;
     else

@@ -46,32 +46,51 @@ static std::optional<Eigen::Matrix2cd> oneQubit(const ir::Circuit &C,
   return M;
 }
 
-/// Closed forms for the library's rotation gates, which are most of the
-/// parametrised leaves of real files: |tr U(theta, phi, lambda)| =
+/// The library's rotation gates, which are most of the parametrised leaves
+/// of real files, have closed forms: |tr U(theta, phi, lambda)| =
 /// 2 |cos(theta/2) cos((phi + lambda)/2)|, and the angle is arccos of half
-/// of it. std::nullopt for other gates.
-static std::optional<double> rotationAngle(const ir::GateDef &D,
-                                           llvm::ArrayRef<double> P) {
-  using std::numbers::pi;
-  auto fromU = [](double Theta, double PhiPlusLambda) {
-    return std::acos(std::min(
-        1.0, std::abs(std::cos(Theta / 2) * std::cos(PhiPlusLambda / 2))));
-  };
+/// of it.
+static double angleOfU(double Theta, double PhiPlusLambda) {
+  return std::acos(std::min(
+      1.0, std::abs(std::cos(Theta / 2) * std::cos(PhiPlusLambda / 2))));
+}
+
+/// Which closed form gate `D` has, by its name and origin.
+static RotationForm rotationFormByName(const ir::GateDef &D) {
   bool Builtin = D.Origin == ir::GateOrigin::Builtin;
   bool Library = D.Origin == ir::GateOrigin::StandardLibrary;
   if (Builtin && D.Name == "U")
-    return fromU(P[0], P[1] + P[2]);
+    return RotationForm::U;
   if (!Library)
-    return std::nullopt;
+    return RotationForm::None;
   llvm::StringRef N = D.Name;
-  if ((N == "u3" || N == "u") && P.size() == 3)
-    return fromU(P[0], P[1] + P[2]);
-  if (N == "u2" && P.size() == 2)
-    return fromU(pi / 2, P[0] + P[1]);
-  if ((N == "u1" || N == "p" || N == "rz") && P.size() == 1)
-    return fromU(0, P[0]);
-  if ((N == "rx" || N == "ry") && P.size() == 1)
-    return fromU(P[0], 0);
+  unsigned P = D.numParams();
+  if ((N == "u3" || N == "u") && P == 3)
+    return RotationForm::U;
+  if (N == "u2" && P == 2)
+    return RotationForm::U2;
+  if ((N == "u1" || N == "p" || N == "rz") && P == 1)
+    return RotationForm::Phase;
+  if ((N == "rx" || N == "ry") && P == 1)
+    return RotationForm::Tilt;
+  return RotationForm::None;
+}
+
+static std::optional<double> rotationAngle(RotationForm F,
+                                           llvm::ArrayRef<double> P) {
+  using std::numbers::pi;
+  switch (F) {
+  case RotationForm::None:
+    return std::nullopt;
+  case RotationForm::U:
+    return angleOfU(P[0], P[1] + P[2]);
+  case RotationForm::U2:
+    return angleOfU(pi / 2, P[0] + P[1]);
+  case RotationForm::Phase:
+    return angleOfU(0, P[0]);
+  case RotationForm::Tilt:
+    return angleOfU(P[0], 0);
+  }
   return std::nullopt;
 }
 
@@ -81,9 +100,8 @@ std::optional<double> GateCostModel::angleOf(ir::GateId G,
   auto Given = GivenAngles.find(D.Name);
   if (Given != GivenAngles.end())
     return std::clamp(Given->second, 0.0, std::numbers::pi / 2);
-  if (rotationFormHolds(G))
-    if (std::optional<double> Fast = rotationAngle(D, Params))
-      return Fast;
+  if (std::optional<double> Fast = rotationAngle(rotationForm(G), Params))
+    return Fast;
   for (double V : Params)
     if (!std::isfinite(V))
       return std::nullopt;
@@ -101,31 +119,33 @@ std::optional<double> GateCostModel::angleOf(ir::GateId G,
   return gateAngle(*U);
 }
 
-/// rotationAngle goes by name; a --stdlib library may define `rz` as
+/// rotationFormByName goes by name; a --stdlib library may define `rz` as
 /// something else, so the closed form is checked once per gate against the
-/// unitary at generic angles.
-bool GateCostModel::rotationFormHolds(ir::GateId G) {
-  if (RotationChecked.size() <= G)
-    RotationChecked.resize(C.Gates.size(), -1);
-  if (RotationChecked[G] >= 0)
-    return RotationChecked[G];
+/// unitary at generic angles. A gate with a given angle (--gate-angle) has
+/// no closed form here: the given angle wins.
+RotationForm GateCostModel::rotationForm(ir::GateId G) {
+  if (Forms.size() <= G)
+    Forms.resize(C.Gates.size(), -1);
+  if (Forms[G] >= 0)
+    return RotationForm(Forms[G]);
   const ir::GateDef &D = C.gate(G);
-  bool Holds = false;
+  RotationForm F = GivenAngles.count(D.Name) ? RotationForm::None
+                                             : rotationFormByName(D);
   std::vector<double> P(D.numParams());
-  for (int Trial = 0; Trial < 3; ++Trial) {
+  for (int Trial = 0; Trial < 3 && F != RotationForm::None; ++Trial) {
     for (unsigned I = 0; I < P.size(); ++I)
       P[I] = 0.37 + 0.61 * Trial + 0.23 * I;
-    std::optional<double> Fast = rotationAngle(D, P);
+    std::optional<double> Fast = rotationAngle(F, P);
     std::optional<Eigen::Matrix2cd> M =
         D.numQubits() == 1 ? oneQubit(C, G, P) : std::nullopt;
-    Holds = Fast && M &&
-            std::abs(*Fast - std::acos(std::min(1.0, std::abs(M->trace()) / 2))) <
-                1e-9;
+    bool Holds = Fast && M &&
+                 std::abs(*Fast - std::acos(std::min(
+                                      1.0, std::abs(M->trace()) / 2))) < 1e-9;
     if (!Holds)
-      break;
+      F = RotationForm::None;
   }
-  RotationChecked[G] = Holds;
-  return Holds;
+  Forms[G] = int8_t(F);
+  return F;
 }
 
 LeafCost GateCostModel::costOfAngle(double Angle) {
@@ -133,14 +153,18 @@ LeafCost GateCostModel::costOfAngle(double Angle) {
   Cost.Known = true;
   Cost.AngleRad = Angle;
   Cost.Orthogonal = reachesOrthogonal(Angle);
+  // Files repeat a few angles (pi/4, pi/8) or have all different ones; a
+  // direct-mapped cache serves the first at no cost in memory and costs the
+  // second one probe.
   uint64_t Bits;
   std::memcpy(&Bits, &Angle, sizeof(Bits));
-  if (ActionByAngle.size() > (1u << 20)) // a cache: bound its memory
-    ActionByAngle.clear();
-  auto [It, New] = ActionByAngle.try_emplace(Bits, 0.0);
-  if (New)
-    It->second = mlAction(Angle);
-  Cost.ActionJs = It->second;
+  ActionSlot &Slot = ActionCache[(Bits ^ Bits >> 29) % ActionCache.size()];
+  if (!Slot.Valid || Slot.AngleBits != Bits) {
+    Slot.AngleBits = Bits;
+    Slot.ActionJs = mlAction(Angle);
+    Slot.Valid = true;
+  }
+  Cost.ActionJs = Slot.ActionJs;
   return Cost;
 }
 
@@ -156,11 +180,10 @@ const LeafCost &GateCostModel::cost(ir::GateId G, llvm::ArrayRef<double> Params)
     }
     return *ById[G];
   }
-  if (!GivenAngles.count(C.gate(G).Name) && rotationFormHolds(G))
-    if (std::optional<double> Angle = rotationAngle(C.gate(G), Params)) {
-      Scratch = costOfAngle(*Angle);
-      return Scratch;
-    }
+  if (std::optional<double> Angle = rotationAngle(rotationForm(G), Params)) {
+    Scratch = costOfAngle(*Angle);
+    return Scratch;
+  }
   std::string Key = ir::callKey(G, Params);
   auto It = ByCall.find(Key);
   if (It != ByCall.end())

@@ -160,6 +160,7 @@ public:
       : Limits(Limits), Warnings(Warnings) {}
 
   llvm::Error onStatement(const Statement &S) override;
+  bool tryPlainCall(const PlainCall &Call) override;
   /// Sizes the op and wire pools for the main file's text.
   void reserveFor(llvm::StringRef MainText);
   ir::Circuit take() { return std::move(C); }
@@ -542,6 +543,46 @@ llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
   return errorAt(Loc, fmt::format("more than {} top-level operations after "
                                   "broadcasting (--max-ops)",
                                   Limits.MaxOps));
+}
+
+// applyGate's rules for the plain form, checked before anything is added;
+// whatever would be a diagnostic is left to applyGate.
+bool Elaborator::tryPlainCall(const PlainCall &Call) {
+  const auto *Entry = GateCache.find(Call.Gate.Name);
+  if (!Entry)
+    return false;
+  ir::GateId Id = Entry->getValue();
+  const ir::GateDef &Def = C.gate(Id);
+  unsigned Arity = unsigned(Call.Args.size());
+  if (Call.Params.size() != Def.numParams() || Arity != Def.numQubits() ||
+      C.Ops.size() >= Limits.MaxOps)
+    return false;
+  uint32_t Wires[8];
+  if (Arity > std::size(Wires))
+    return false;
+  for (unsigned A = 0; A < Arity; ++A) {
+    const PlainOperand &Arg = Call.Args[A];
+    bool IsQuantum = false;
+    const ir::Register *R = findRegister(Arg.Reg.Name, IsQuantum);
+    if (!R || !IsQuantum || Arg.Index >= R->Size)
+      return false;
+    Wires[A] = R->Offset + uint32_t(Arg.Index);
+    for (unsigned B = 0; B < A; ++B)
+      if (Wires[B] == Wires[A])
+        return false;
+  }
+  ir::Op O;
+  O.Kind = ir::OpKind::Gate;
+  O.Gate = Id;
+  O.FirstWire = uint32_t(C.Wires.size());
+  O.NumWires = Arity;
+  O.FirstParam = uint32_t(C.Params.size());
+  O.Cond = ir::NoCondition;
+  O.Loc = Call.Gate.Loc;
+  C.Params.insert(C.Params.end(), Call.Params.begin(), Call.Params.end());
+  C.Wires.insert(C.Wires.end(), Wires, Wires + Arity);
+  C.Ops.push_back(O);
+  return true;
 }
 
 llvm::Error Elaborator::applyGate(const Statement &S, uint32_t Cond) {

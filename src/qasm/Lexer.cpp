@@ -1,5 +1,6 @@
 //===- Lexer.cpp - Tokens of OpenQASM 2.0 --------------------------------===//
 #include "revbound/qasm/Lexer.h"
+#include "CharClasses.h"
 
 #include "llvm/Support/Compiler.h"
 #include "llvm/Support/ConvertUTF.h"
@@ -7,7 +8,6 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <array>
 #include <cassert>
 
 namespace revbound::qasm {
@@ -75,65 +75,7 @@ Token Lexer::error(const char *At, unsigned Length, llvm::StringRef Message) {
   return Token{Tok::Error, llvm::StringRef(At, Length)};
 }
 
-namespace {
-
-/// Byte classes, one bit each, so that "may continue a name" is one test.
-enum CharClass : uint8_t {
-  ClassSpace = 1,
-  ClassIdentStart = 2,
-  ClassDigit = 4
-};
-
-constexpr std::array<uint8_t, 256> makeCharClasses() {
-  std::array<uint8_t, 256> Classes{};
-  for (char C : {' ', '\t', '\n', '\r', '\f', '\v'})
-    Classes[static_cast<unsigned char>(C)] = ClassSpace;
-  for (int C = 'a'; C <= 'z'; ++C)
-    Classes[C] = ClassIdentStart;
-  for (int C = 'A'; C <= 'Z'; ++C)
-    Classes[C] = ClassIdentStart;
-  Classes['_'] = ClassIdentStart;
-  for (int C = '0'; C <= '9'; ++C)
-    Classes[C] = ClassDigit;
-  return Classes;
-}
-
-constexpr std::array<uint8_t, 256> CharClasses = makeCharClasses();
-
-bool hasClass(char C, uint8_t Mask) {
-  return CharClasses[static_cast<unsigned char>(C)] & Mask;
-}
-bool isSpace(char C) { return hasClass(C, ClassSpace); }
-bool isIdentStart(char C) { return hasClass(C, ClassIdentStart); }
-bool isIdentBody(char C) { return hasClass(C, ClassIdentStart | ClassDigit); }
-bool isDigit(char C) { return hasClass(C, ClassDigit); }
-
-/// The keyword spelled by `Name`, or Tok::Identifier. The first letter
-/// leaves at most two candidates, so ordinary names (q, cx, rz) cost a
-/// length comparison or none.
-Tok keywordKind(llvm::StringRef Name) {
-  auto Match = [&](llvm::StringRef Keyword, Tok K) {
-    return Name == Keyword ? K : Tok::Identifier;
-  };
-  switch (Name[0]) {
-  case 'O': return Match("OPENQASM", Tok::KwOpenqasm);
-  case 'i': return Name.size() == 2 ? Match("if", Tok::KwIf)
-                                    : Match("include", Tok::KwInclude);
-  case 'q': return Match("qreg", Tok::KwQreg);
-  case 'c': return Match("creg", Tok::KwCreg);
-  case 'g': return Match("gate", Tok::KwGate);
-  case 'o': return Match("opaque", Tok::KwOpaque);
-  case 'm': return Match("measure", Tok::KwMeasure);
-  case 'r': return Match("reset", Tok::KwReset);
-  case 'b': return Match("barrier", Tok::KwBarrier);
-  case 'p': return Match("pi", Tok::KwPi);
-  case 'U': return Match("U", Tok::KwU);
-  case 'C': return Match("CX", Tok::KwCX);
-  default: return Tok::Identifier;
-  }
-}
-
-} // namespace
+using namespace chars;
 
 bool Lexer::skipComment() {
   const char *Start = Cur;

@@ -7,6 +7,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "revbound/qasm/Parser.h"
+#include "PlainCallScanner.h"
 #include "revbound/qasm/Lexer.h"
 #include "revbound/qasm/StandardLibrary.h"
 
@@ -24,6 +25,8 @@
 namespace revbound::qasm {
 
 StatementSink::~StatementSink() = default;
+
+bool StatementSink::tryPlainCall(const PlainCall &) { return false; }
 
 unsigned Operand::length() const {
   if (!HasIndex)
@@ -119,6 +122,7 @@ private:
   unsigned ExprDepth = 0;
   static constexpr unsigned MaxExprDepth = 200;
   Statement Stmt; // reused so that a flat file costs no allocation per line
+  PlainCall Plain; // likewise, for the plain calls read past the lexer
   std::vector<std::string> IncludeStack;
 };
 
@@ -225,6 +229,17 @@ llvm::Error Parser::parseStatement(unsigned Depth) {
     return errorAt(Cur.loc(), "the 'OPENQASM' header may only open a file",
                    Cur.length());
   case Tok::Identifier:
+    if (const char *After =
+            Opts.ReadPlainCalls
+                ? scanPlainCall({Cur.Text, Cur.loc()}, L->position(), Plain)
+                : nullptr;
+        After && Sink.tryPlainCall(Plain)) {
+      L->resumeAt(After);
+      PrevEnd = After;
+      Cur = L->lex();
+      return llvm::Error::success();
+    }
+    [[fallthrough]];
   case Tok::KwU:
   case Tok::KwCX:
   case Tok::KwMeasure:

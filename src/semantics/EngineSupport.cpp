@@ -47,6 +47,23 @@ std::vector<llvm::SMLoc> lastUses(const ir::Circuit &C) {
   return Last;
 }
 
+bool canErase(const ir::Circuit &C) {
+  if (!discardedQubits(C).empty())
+    return true;
+  std::vector<bool> Written(C.NumClbits, false);
+  for (const ir::Op &O : C.Ops) {
+    if (O.Kind == ir::OpKind::Reset)
+      return true;
+    if (O.Kind != ir::OpKind::Measure)
+      continue;
+    uint32_t Bit = C.wires(O)[1];
+    if (Written[Bit])
+      return true;
+    Written[Bit] = true;
+  }
+  return false;
+}
+
 std::vector<uint32_t> discardedQubits(const ir::Circuit &C) {
   std::vector<uint32_t> Out;
   for (uint32_t Q = 0; Q < C.NumQubits; ++Q)

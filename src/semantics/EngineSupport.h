@@ -33,6 +33,12 @@ double clampBits(double Bits, double MaxBits);
 /// excluded), or its role declaration when no operation touches it.
 std::vector<llvm::SMLoc> lastUses(const ir::Circuit &C);
 
+/// False when no erasure event can occur: no reset, no bit measured twice
+/// and no discarded qubit. Unitary gates change no entropy, and a measure
+/// into a bit nothing wrote before overwrites a known 0, so no engine needs
+/// to walk the gates.
+bool canErase(const ir::Circuit &C);
+
 /// The qubits whose role is discarded at the end (ancilla, garbage), in
 /// index order.
 std::vector<uint32_t> discardedQubits(const ir::Circuit &C);

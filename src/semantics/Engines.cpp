@@ -35,27 +35,6 @@ static uint64_t expandedOps(const ir::Circuit &C) {
   return Total;
 }
 
-/// False when no event can occur: unitary gates change no entropy, and a
-/// measure into a bit nothing wrote before overwrites a known 0. Then no
-/// engine needs to run, which keeps huge files of gates and final
-/// measurements fast.
-static bool canErase(const ir::Circuit &C) {
-  if (!discardedQubits(C).empty())
-    return true;
-  std::vector<bool> Written(C.NumClbits, false);
-  for (const ir::Op &O : C.Ops) {
-    if (O.Kind == ir::OpKind::Reset)
-      return true;
-    if (O.Kind != ir::OpKind::Measure)
-      continue;
-    uint32_t Bit = C.wires(O)[1];
-    if (Written[Bit])
-      return true;
-    Written[Bit] = true;
-  }
-  return false;
-}
-
 /// Qubits that some operation other than a barrier touches: the density
 /// engine simulates only those.
 static unsigned activeQubits(const ir::Circuit &C) {

@@ -221,6 +221,15 @@ void StructuralRun::finish(Ledger &L) {
 }
 
 Ledger StructuralRun::run() {
+  if (!canErase(C)) {
+    // No event can occur, so the gate walk could only fill the note about
+    // unknown values; skipping it keeps huge unitary files linear in ops
+    // and free of matrix work.
+    Ledger L;
+    L.Engine = EngineKind::Structural;
+    L.DiscardJoint.Exact = true;
+    return L;
+  }
   for (const ir::Op &O : C.Ops) {
     switch (O.Kind) {
     case ir::OpKind::Gate:

@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <cmath>
 #include <numbers>
+#include <vector>
 
 using namespace revbound;
 using std::numbers::pi;
@@ -33,6 +34,40 @@ TEST(SpeedLimit, AlphaAgainstBruteForce) {
   // paper): alpha(0.25) = 0.463461, alpha(0.5) = 0.264995.
   EXPECT_NEAR(physics::mlFactor(0.25), 0.463461, 5e-7);
   EXPECT_NEAR(physics::mlFactor(0.5), 0.264995, 5e-7);
+}
+
+// The same minimisation by ternary search on the objective, which is
+// unimodal on its interval, to full double precision: a second,
+// independent solver for the tabulated fast path.
+static double ternaryAlpha(double Eps) {
+  auto F = [Eps](double P) {
+    double G = std::clamp(1 - (1 - Eps) / (2 * P * (1 - P)), -1.0, 1.0);
+    return P * std::acos(G);
+  };
+  double Lo = (1 - std::sqrt(Eps)) / 2, Hi = (1 + std::sqrt(Eps)) / 2;
+  for (int I = 0; I < 300; ++I) {
+    double A = Lo + (Hi - Lo) / 3, B = Hi - (Hi - Lo) / 3;
+    (F(A) < F(B) ? Hi : Lo) = F(A) < F(B) ? B : A;
+  }
+  return 2 / pi * std::min(F(Lo), F(Hi));
+}
+
+TEST(SpeedLimit, AlphaFastPathAgreesWithSolverEverywhere) {
+  // s = sqrt(eps) over (0, 1), both ends of the table (0.02 and 0.98) and
+  // grid points and midpoints of the table's 4096 steps included.
+  std::vector<double> Roots;
+  for (int I = 1; I < 2000; ++I)
+    Roots.push_back(I / 2000.0);
+  for (double S : {0.02, 0.98, 0.0199999, 0.0200001, 0.9799999, 0.9800001,
+                   1000.0 / 4096, 1000.5 / 4096, 4000.0 / 4096})
+    Roots.push_back(S);
+  for (double S : Roots) {
+    double Eps = S * S;
+    double Fast = physics::mlFactor(Eps), Slow = ternaryAlpha(Eps);
+    // Relative 1e-12 where the table serves; near s = 1, where alpha falls
+    // to 1e-15 and the solver stops at 1e-8 in p, 1e-14 absolute.
+    EXPECT_LE(std::abs(Fast - Slow), 1e-12 * Slow + 1e-14) << "s = " << S;
+  }
 }
 
 // Properties the issue lists: alpha(0) = 1 at orthogonality, monotone

@@ -66,6 +66,9 @@ struct PrimitiveCounts {
 /// phase: t and tdg of the library, and angle gates (rz, u1, p, U, u3, u with
 /// theta = 0) at +-pi/4 modulo 2 pi, within 1e-9.
 bool isTLeaf(const ir::GateDef &G, llvm::ArrayRef<double> Params);
+/// isTLeaf's angle rule without the name checks: for rz, u1 and p
+/// (`ThreeAngles` false) or for U, u3 and u.
+bool isTByAngle(bool ThreeAngles, llvm::ArrayRef<double> Params);
 
 /// Computes and memoises the summaries of one circuit under one policy.
 class SummaryCache {
@@ -85,7 +88,9 @@ public:
     case TKind::Always:
       return true;
     case TKind::ByAngle:
-      return isTLeaf(C.gate(G), Params);
+      return isTByAngle(false, Params);
+    case TKind::ByThreeAngles:
+      return isTByAngle(true, Params);
     case TKind::ByUnitary:
       return unitaryIsT(G, Params);
     }
@@ -110,7 +115,7 @@ private:
   const ir::Circuit &C;
   const LeafPolicy &Policy;
   std::vector<bool> LeafFlags;
-  enum class TKind : uint8_t { Never, Always, ByAngle, ByUnitary };
+  enum class TKind : uint8_t { Never, Always, ByAngle, ByThreeAngles, ByUnitary };
   std::vector<TKind> TKinds;
   bool unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params);
   bool angleRuleHolds(ir::GateId G);

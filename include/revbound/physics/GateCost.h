@@ -15,6 +15,7 @@
 #include "llvm/ADT/DenseMap.h"
 #include "llvm/ADT/StringMap.h"
 
+#include <array>
 #include <optional>
 #include <string>
 #include <vector>
@@ -28,6 +29,9 @@ struct LeafCost {
   double ActionJs = 0;    // pi hbar alpha(cos^2 L) / 2
   bool Orthogonal = false; // L = pi/2
 };
+
+/// The closed form of a library rotation's angle (GateCost.cpp).
+enum class RotationForm : int8_t { None, U, U2, Phase, Tilt };
 
 class GateCostModel {
 public:
@@ -45,8 +49,8 @@ public:
 
 private:
   std::optional<double> angleOf(ir::GateId G, llvm::ArrayRef<double> Params);
-  bool rotationFormHolds(ir::GateId G);
-  std::vector<int8_t> RotationChecked; // -1 unknown, 0 no, 1 yes
+  RotationForm rotationForm(ir::GateId G);
+  std::vector<int8_t> Forms; // per gate: -1 not yet known, else a RotationForm
 
   const ir::Circuit &C;
   llvm::StringMap<double> GivenAngles;
@@ -55,7 +59,12 @@ private:
   std::unordered_map<std::string, LeafCost> ByCall;
   std::vector<std::optional<LeafCost>> ById; // gates without parameters
   LeafCost Scratch;
-  llvm::DenseMap<uint64_t, double> ActionByAngle; // keyed by the double's bits
+  struct ActionSlot {
+    uint64_t AngleBits = 0; // the angle's bits
+    double ActionJs = 0;
+    bool Valid = false;
+  };
+  std::array<ActionSlot, 4096> ActionCache{};
 };
 
 } // namespace revbound::physics

@@ -99,11 +99,33 @@ struct Statement {
   llvm::SMLoc CondValueLoc;
 };
 
+/// `reg[index]` in a PlainCall.
+struct PlainOperand {
+  Ident Reg;
+  uint64_t Index = 0;
+};
+
+/// A gate call in the form that makes up nearly every line of a large flat
+/// file, `name(0.5, -2) q[0], r[3];`: literal parameters (a number, perhaps
+/// negated) and indexed operands, only spaces and tabs between the tokens,
+/// no condition. The parser reads these straight from the bytes and offers
+/// them to StatementSink::tryPlainCall before building a Statement.
+struct PlainCall {
+  Ident Gate; // its location is the statement's
+  llvm::SmallVector<double, 3> Params;
+  llvm::SmallVector<PlainOperand, 3> Args;
+};
+
 /// Receives statements in source order; an error stops the parse.
 class StatementSink {
 public:
   virtual ~StatementSink();
   virtual llvm::Error onStatement(const Statement &S) = 0;
+  /// Applies `Call` and returns true only when it is certain to succeed.
+  /// False changes nothing: the parser then reads the same statement the
+  /// ordinary way and hands it to onStatement, so every diagnostic comes
+  /// from one place.
+  virtual bool tryPlainCall(const PlainCall &Call);
 };
 
 } // namespace revbound::qasm

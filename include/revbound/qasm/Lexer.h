@@ -91,6 +91,12 @@ public:
   void collectAnnotations(std::vector<llvm::StringRef> *Out) {
     Annotations = Out;
   }
+  /// Where the next token will be looked for.
+  const char *position() const { return Cur; }
+  /// Continues lexing at `P`, a point of this buffer after position() that
+  /// another reader (the plain-call scanner) has consumed up to.
+  void resumeAt(const char *P) { Cur = P; }
+
   /// For an Error token: what is wrong (set when lex() returned Tok::Error).
   const std::string &errorMessage() const { return ErrorMessage; }
 

@@ -15,6 +15,10 @@ struct ParserOptions {
   /// A file that replaces the built-in qelib1.inc ("" for the built-in one).
   std::string StandardLibraryPath;
   unsigned MaxIncludeDepth = 16;
+  /// Reads plain gate calls (AST.h, PlainCall) straight from the bytes.
+  /// Off, every statement goes token by token; the results are the same,
+  /// which the tests and a fuzz target check by comparing the two.
+  bool ReadPlainCalls = true;
 };
 
 /// Parses buffer `BufferId` of `Files` and streams its statements, and those

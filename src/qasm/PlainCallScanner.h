@@ -1,0 +1,28 @@
+//===- PlainCallScanner.h - Gate calls read straight from the bytes -------===//
+//
+// Internal to src/qasm. Most lines of a large flat file are one gate call of
+// the plainest form; reading them token by token through the general parser
+// costs most of the front end's time. scanPlainCall reads exactly the
+// PlainCall form (AST.h) by the lexer's own rules (CharClasses.h) and gives
+// up on anything else: a comment, a line break, an expression, a lexical
+// error. Giving up costs nothing, since the parser then reads the statement
+// as usual from where it was.
+//
+//===----------------------------------------------------------------------===//
+#ifndef REVBOUND_QASM_PLAINCALLSCANNER_H
+#define REVBOUND_QASM_PLAINCALLSCANNER_H
+
+#include "revbound/qasm/AST.h"
+
+namespace revbound::qasm {
+
+/// Reads the rest of a plain call whose gate name `Gate` has just been
+/// lexed; `After` points right after the name. Returns the byte after the
+/// closing ';' with `Out` filled, or nullptr when the statement is not of
+/// the plain form. `After` must lie in a NUL-terminated buffer.
+const char *scanPlainCall(const Ident &Gate, const char *After,
+                          PlainCall &Out);
+
+} // namespace revbound::qasm
+
+#endif

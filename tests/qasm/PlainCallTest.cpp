@@ -1,0 +1,136 @@
+//===- PlainCallTest.cpp - Plain gate calls read past the lexer -----------===//
+//
+// The fast path must be taken for the plain form, refused for everything
+// else, and give exactly what the token-by-token path gives, diagnostics
+// included. The grammar is the OpenQASM 2.0 specification's (Cross et al.,
+// arXiv:1707.03429, section 4, "uop" and "argument").
+//
+//===----------------------------------------------------------------------===//
+#include "PlainCallCheck.h"
+
+#include "revbound/qasm/Parser.h"
+
+#include <gtest/gtest.h>
+
+using namespace revbound;
+
+namespace {
+
+/// Accepts every plain call and counts both kinds of statement.
+class CountingSink : public qasm::StatementSink {
+public:
+  unsigned Plain = 0, Ordinary = 0;
+  std::vector<double> LastParams;
+  std::vector<uint64_t> LastIndices;
+  llvm::Error onStatement(const qasm::Statement &) override {
+    ++Ordinary;
+    return llvm::Error::success();
+  }
+  bool tryPlainCall(const qasm::PlainCall &C) override {
+    ++Plain;
+    LastParams.assign(C.Params.begin(), C.Params.end());
+    LastIndices.clear();
+    for (const qasm::PlainOperand &A : C.Args)
+      LastIndices.push_back(A.Index);
+    return true;
+  }
+};
+
+/// Parses "qreg q[8];" and `Line`; true when `Line` took the fast path.
+bool readsPlain(const std::string &Line, CountingSink &Sink) {
+  SourceFiles Files;
+  unsigned Id = Files.addBuffer("t.qasm", "qreg q[8];\n" + Line + "\n");
+  qasm::ParserOptions Opts;
+  DiagnosticSink Warnings;
+  llvm::Error E = qasm::parseProgram(Files, Id, Opts, Sink, Warnings);
+  llvm::consumeError(std::move(E));
+  return Sink.Plain == 1;
+}
+
+bool readsPlain(const std::string &Line) {
+  CountingSink Sink;
+  return readsPlain(Line, Sink);
+}
+
+TEST(PlainCall, TakenForThePlainForm) {
+  EXPECT_TRUE(readsPlain("h q[0];"));
+  EXPECT_TRUE(readsPlain("cx q[0],q[1];"));
+  EXPECT_TRUE(readsPlain("cx\tq [ 0 ] ,  q[1] ;"));
+  EXPECT_TRUE(readsPlain("ccx q[0], q[1], q[2]; // trailing comment"));
+  EXPECT_TRUE(readsPlain("foo() q[0];"));
+  CountingSink Sink;
+  EXPECT_TRUE(readsPlain("u3(0.5, -1e-3, - 2) q[7];", Sink));
+  EXPECT_EQ(Sink.LastParams, (std::vector<double>{0.5, -1e-3, -2.0}));
+  EXPECT_EQ(Sink.LastIndices, (std::vector<uint64_t>{7}));
+  CountingSink Dots;
+  EXPECT_TRUE(readsPlain("rz(.25) q[0];", Dots));
+  EXPECT_EQ(Dots.LastParams, (std::vector<double>{0.25}));
+}
+
+TEST(PlainCall, RefusedForEverythingElse) {
+  for (const char *Line :
+       {"h q;",                 // a whole register: broadcasting
+        "h\nq[0];",             // a line break inside the statement
+        "h q[0] // c\n;",       // a comment inside
+        "rz(pi/2) q[0];",       // an expression
+        "rz(+1) q[0];",         // no unary plus in the grammar
+        "rz(--1) q[0];",        // two signs
+        "rz(1e400) q[0];",      // out of a double's range
+        "rz(1e) q[0];",         // a lexical error
+        "rz(01) q[0];",         // an integer may not start with 0
+        "rz(1x) q[0];",         // a number running into a name
+        "h q[01];", "h q[1.0];", "h q[1e0];", "h q[];",
+        "h q[18446744073709551616];", // past 2^64
+        "h pi[0];",             // a keyword as a register
+        "h q[0]",               // no ';'
+        "h q[0],;", "h q[0] q[1];", "if (c==1) h q[0];", "measure q[0] -> c[0];",
+        "U(0,0,0) q[0];", "CX q[0],q[1];", "h q[0]\r\n;"}) {
+    CountingSink Sink;
+    EXPECT_FALSE(readsPlain(Line, Sink)) << Line;
+  }
+}
+
+TEST(PlainCall, SameCircuitAndDiagnosticsBothWays) {
+  const std::string Head = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                           "qreg q[4];\nqreg r[2];\ncreg c[4];\n";
+  for (const char *Body : {
+           "h q[0];\ncx q[0],q[1];\nrz(-0.5) q[2];\nu3(1,2,3) r[1];\n",
+           "rz(0) q[0]; rz(-0) q[1]; rz(1e-400) q[2]; rz(4.9e-324) q[3];\n",
+           "rz(0.1000000000000000055511151231257827) q[0];\n",
+           "h q[4];\n",           // index out of range
+           "h c[0];\n",           // a classical register as a qubit
+           "h s[0];\n",           // an undeclared register
+           "cx q[1],q[1];\n",     // a repeated qubit
+           "nosuch q[0];\n",      // an unknown gate
+           "cx q[0];\n",          // wrong arity
+           "rz q[0];\n",          // a missing parameter
+           "h(0.5) q[0];\n",      // an extra parameter
+           "rz(1e400) q[0];\n",   // out of range, the parser's message
+           "h q[0]\n",            // missing ';'
+           "gate g a { h a; }\ng q[0];\ng(1) q[0];\n",
+           "h q;\ncx q, r;\n",    // broadcasting, and a size mismatch
+           "h q[0]; //! role q[1] ancilla\n",
+           "cx q[0], q[2]; if (c==0) h q[0]; h q[3];\n"}) {
+    std::string Text = Head + Body;
+    EXPECT_EQ(test::plainCallDifference(Text), "") << Body;
+  }
+}
+
+TEST(PlainCall, WithoutTheStandardHeaderOrLibrary) {
+  // U and CX only, and a file that declares its own gates.
+  EXPECT_EQ(test::plainCallDifference(
+                "qreg q[2];\ngate mine(t) a, b { U(t,0,0) a; CX a, b; }\n"
+                "mine(0.5) q[0], q[1];\nmine(0.5) q[1], q[1];\n"),
+            "");
+}
+
+TEST(PlainCall, LimitOnOpsIsTheSameDiagnostic) {
+  qasm::FrontendOptions Opts;
+  Opts.Limits.MaxOps = 2;
+  EXPECT_EQ(test::plainCallDifference("OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                                      "qreg q[2];\nh q[0];\nh q[1];\nx q[0];\n",
+                                      Opts),
+            "");
+}
+
+} // namespace

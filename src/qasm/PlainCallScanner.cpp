@@ -3,6 +3,8 @@
 #include "CharClasses.h"
 
 #include <charconv>
+#include <cmath>
+#include <numbers>
 
 namespace revbound::qasm {
 
@@ -54,6 +56,43 @@ const char *scanNumber(const char *P, double &Value) {
   return P;
 }
 
+/// A number or `pi`, perhaps negated.
+const char *scanFactor(const char *P, double &Value) {
+  bool Negated = *P == '-';
+  if (Negated)
+    P = skipBlanks(P + 1);
+  if (P[0] == 'p' && P[1] == 'i' && !isIdentBody(P[2])) {
+    Value = std::numbers::pi;
+    P += 2;
+  } else if (!(P = scanNumber(P, Value))) {
+    return nullptr;
+  }
+  if (Negated)
+    Value = -Value;
+  return P;
+}
+
+/// A parameter: factors joined by '*' and '/', as in `-pi/4` or `3*pi/8`,
+/// evaluated left to right with the same double operations as the
+/// elaborator's ParamExpr, so the value is the same to the bit. Other
+/// operators ('+', '^', calls, parentheses) are left to the parser, and so
+/// is a value that is not finite (the parser's diagnostic).
+const char *scanParam(const char *P, double &Value) {
+  if (!(P = scanFactor(P, Value)))
+    return nullptr;
+  while (true) {
+    P = skipBlanks(P);
+    char Op = *P;
+    if (Op != '*' && Op != '/')
+      break;
+    double Rhs = 0;
+    if (!(P = scanFactor(skipBlanks(P + 1), Rhs)))
+      return nullptr;
+    Value = Op == '*' ? Value * Rhs : Value / Rhs;
+  }
+  return std::isfinite(Value) && *P != '^' ? P : nullptr;
+}
+
 /// `name [ index ]`, the name not a keyword, the index a nninteger.
 const char *scanOperand(const char *P, PlainOperand &Out) {
   if (!isIdentStart(*P))
@@ -97,15 +136,10 @@ const char *scanPlainCall(const Ident &Gate, const char *After,
     P = skipBlanks(P + 1);
     if (*P != ')') {
       while (true) {
-        bool Negated = *P == '-';
-        if (Negated)
-          P = skipBlanks(P + 1);
         double V = 0;
-        P = scanNumber(P, V);
-        if (!P)
+        if (!(P = scanParam(P, V)))
           return nullptr;
-        Out.Params.push_back(Negated ? -V : V);
-        P = skipBlanks(P);
+        Out.Params.push_back(V);
         if (*P != ',')
           break;
         P = skipBlanks(P + 1);

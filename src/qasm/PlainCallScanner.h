@@ -4,8 +4,8 @@
 // the plainest form; reading them token by token through the general parser
 // costs most of the front end's time. scanPlainCall reads exactly the
 // PlainCall form (AST.h) by the lexer's own rules (CharClasses.h) and gives
-// up on anything else: a comment, a line break, an expression, a lexical
-// error. Giving up costs nothing, since the parser then reads the statement
+// up on anything else: a comment, a line break, a sum or a power, a
+// lexical error. Giving up costs nothing, since the parser then reads the statement
 // as usual from where it was.
 //
 //===----------------------------------------------------------------------===//

@@ -7,6 +7,8 @@
 
 #include <algorithm>
 #include <fmt/format.h>
+#include <future>
+#include <optional>
 #include <map>
 #include <tuple>
 
@@ -248,34 +250,60 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   std::sort(R.Warnings.begin(), R.Warnings.end(),
             [](const Finding &A, const Finding &B) { return A.Message < B.Message; });
   analysis::SummaryCache Cache(C, Opts.Policy);
+  // The speed bounds read only the circuit and the cache's leaf flags, which
+  // are fixed at construction, so on large circuits they run beside the
+  // census and the schedule, on the second core a CI machine usually has.
+  // Each part computes what it would alone: the report is the same either
+  // way.
+  auto SpeedPart = [&]() -> llvm::Error {
+    physics::GateCostModel Costs(C, Opts.GivenAngles, Opts.MaxMatrixQubits);
+    llvm::Expected<analysis::SpeedBounds> Speed =
+        analysis::boundSpeed(C, Cache, Costs, Opts.Energy);
+    if (!Speed)
+      return Speed.takeError();
+    R.Speed.Energy = Opts.Energy;
+    R.Speed.Bounds = std::move(*Speed);
+    R.Speed.Frontier = analysis::sampleFrontier(R.Speed.Bounds, Opts.Energy);
+    if (Opts.Durations) {
+      llvm::Expected<analysis::DeviceComparison> Device =
+          analysis::compareWithDevice(C, Cache, Costs, *Opts.Durations,
+                                      Opts.Energy, R.Speed.Bounds);
+      if (!Device)
+        return Device.takeError();
+      R.Speed.Device = std::move(*Device);
+    }
+    return llvm::Error::success();
+  };
+  std::optional<std::future<llvm::Error>> SpeedAside;
+  if (C.Ops.size() >= Opts.MinOpsForSecondThread)
+    SpeedAside = std::async(std::launch::async, SpeedPart);
+  // Waits for the speed part however this function returns.
+  auto JoinSpeed = [&]() -> llvm::Error {
+    if (!SpeedAside)
+      return llvm::Error::success();
+    llvm::Error E = SpeedAside->get();
+    SpeedAside.reset();
+    return E;
+  };
+  auto Fail = [&](llvm::Error E) -> llvm::Error {
+    llvm::consumeError(JoinSpeed());
+    return E;
+  };
   llvm::Expected<analysis::Census> Ops = analysis::takeCensus(C, Cache);
   if (!Ops)
-    return Ops.takeError();
+    return Fail(Ops.takeError());
   R.Ops = std::move(*Ops);
   llvm::Expected<analysis::Schedule> S = analysis::scheduleCircuit(C, Cache);
   if (!S)
-    return S.takeError();
+    return Fail(S.takeError());
   R.DepthAll = S->Depth[unsigned(analysis::DepthMetric::All)];
   R.DepthTwoQubit = S->Depth[unsigned(analysis::DepthMetric::TwoQubit)];
   R.DepthT = S->Depth[unsigned(analysis::DepthMetric::T)];
   R.Volume = S->Volume;
   if (llvm::Error E = fillPath(C, Files, Cache, R.Ops, *S, Opts, R.Path))
+    return Fail(std::move(E));
+  if (llvm::Error E = SpeedAside ? JoinSpeed() : SpeedPart())
     return std::move(E);
-  physics::GateCostModel Costs(C, Opts.GivenAngles, Opts.MaxMatrixQubits);
-  llvm::Expected<analysis::SpeedBounds> Speed =
-      analysis::boundSpeed(C, Cache, Costs, Opts.Energy);
-  if (!Speed)
-    return Speed.takeError();
-  R.Speed.Energy = Opts.Energy;
-  R.Speed.Bounds = std::move(*Speed);
-  R.Speed.Frontier = analysis::sampleFrontier(R.Speed.Bounds, Opts.Energy);
-  if (Opts.Durations) {
-    llvm::Expected<analysis::DeviceComparison> Device = analysis::compareWithDevice(
-        C, Cache, Costs, *Opts.Durations, Opts.Energy, R.Speed.Bounds);
-    if (!Device)
-      return Device.takeError();
-    R.Speed.Device = std::move(*Device);
-  }
   llvm::Expected<semantics::Ledger> Ledger =
       semantics::runEngine(C, Opts.Engine);
   if (!Ledger)

@@ -53,20 +53,25 @@ static double ternaryAlpha(double Eps) {
 }
 
 TEST(SpeedLimit, AlphaFastPathAgreesWithSolverEverywhere) {
-  // s = sqrt(eps) over (0, 1), both ends of the table (0.02 and 0.98) and
-  // grid points and midpoints of the table's 4096 steps included.
+  // s = sqrt(eps) over (0, 1), the tables' borders (s = 0.02 and 0.98),
+  // grid points and midpoints of the middle table, and both ends closely.
   std::vector<double> Roots;
   for (int I = 1; I < 2000; ++I)
     Roots.push_back(I / 2000.0);
+  for (double T : {1e-9, 1e-7, 1e-5, 1e-4, 1e-3}) {
+    Roots.push_back(T);
+    Roots.push_back(std::sqrt(1 - T * T)); // sqrt(1 - eps) = T
+  }
   for (double S : {0.02, 0.98, 0.0199999, 0.0200001, 0.9799999, 0.9800001,
                    1000.0 / 4096, 1000.5 / 4096, 4000.0 / 4096})
     Roots.push_back(S);
   for (double S : Roots) {
     double Eps = S * S;
     double Fast = physics::mlFactor(Eps), Slow = ternaryAlpha(Eps);
-    // Relative 1e-12 where the table serves; near s = 1, where alpha falls
-    // to 1e-15 and the solver stops at 1e-8 in p, 1e-14 absolute.
-    EXPECT_LE(std::abs(Fast - Slow), 1e-12 * Slow + 1e-14) << "s = " << S;
+    // Near s = 0 any evaluation loses digits: the objective's argument lies
+    // within s^2 of -1, where arccos turns a rounding of 1e-16 into about
+    // 1e-16 / s. Hence the second term (common practice in error analysis).
+    EXPECT_LE(std::abs(Fast - Slow), 1e-12 * Slow + 4e-16 / S) << "s = " << S;
   }
 }
 

@@ -62,6 +62,12 @@ TEST(PlainCall, TakenForThePlainForm) {
   EXPECT_TRUE(readsPlain("u3(0.5, -1e-3, - 2) q[7];", Sink));
   EXPECT_EQ(Sink.LastParams, (std::vector<double>{0.5, -1e-3, -2.0}));
   EXPECT_EQ(Sink.LastIndices, (std::vector<uint64_t>{7}));
+  CountingSink Angles;
+  EXPECT_TRUE(readsPlain("u3(pi/2, -pi/4, 3*pi/8) q[0];", Angles));
+  const double Pi = 3.141592653589793; // the double nearest pi
+  EXPECT_EQ(Angles.LastParams,
+            (std::vector<double>{Pi / 2, -Pi / 4, 3 * Pi / 8}));
+  EXPECT_TRUE(readsPlain("rz(pi * -2 / 3) q[0];"));
   CountingSink Dots;
   EXPECT_TRUE(readsPlain("rz(.25) q[0];", Dots));
   EXPECT_EQ(Dots.LastParams, (std::vector<double>{0.25}));
@@ -72,7 +78,10 @@ TEST(PlainCall, RefusedForEverythingElse) {
        {"h q;",                 // a whole register: broadcasting
         "h\nq[0];",             // a line break inside the statement
         "h q[0] // c\n;",       // a comment inside
-        "rz(pi/2) q[0];",       // an expression
+        "rz(pi+1) q[0];",       // a sum
+        "rz(2^2) q[0];", "rz(pi^2) q[0];", // powers bind tighter than '*'
+        "rz(sin(1)) q[0];", "rz((1)) q[0];", "rz(pix) q[0];",
+        "rz(1/0) q[0];",        // not finite: the parser's diagnostic
         "rz(+1) q[0];",         // no unary plus in the grammar
         "rz(--1) q[0];",        // two signs
         "rz(1e400) q[0];",      // out of a double's range
@@ -97,6 +106,9 @@ TEST(PlainCall, SameCircuitAndDiagnosticsBothWays) {
            "h q[0];\ncx q[0],q[1];\nrz(-0.5) q[2];\nu3(1,2,3) r[1];\n",
            "rz(0) q[0]; rz(-0) q[1]; rz(1e-400) q[2]; rz(4.9e-324) q[3];\n",
            "rz(0.1000000000000000055511151231257827) q[0];\n",
+           "rz(pi/4) q[0]; rz(-pi/4) q[1]; rz(pi*-2/3) q[2]; rz(2*pi/3) q[3];\n",
+           "rz(1e308*10) q[0];\n", "rz(1/0) q[0];\n", "rz(0/0) q[0];\n",
+           "u3(pi/7*3/11, -pi*1e-3, 5/pi) r[0];\n",
            "h q[4];\n",           // index out of range
            "h c[0];\n",           // a classical register as a qubit
            "h s[0];\n",           // an undeclared register

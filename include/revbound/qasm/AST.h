@@ -106,9 +106,9 @@ struct PlainOperand {
 };
 
 /// A gate call in the form that makes up nearly every line of a large flat
-/// file, `name(0.5, -2) q[0], r[3];`: literal parameters (a number, perhaps
-/// negated) and indexed operands, only spaces and tabs between the tokens,
-/// no condition. The parser reads these straight from the bytes and offers
+/// file, `name(0.5, -pi/4) q[0], r[3];`: parameters that are products and
+/// quotients of numbers and pi (each perhaps negated), indexed operands,
+/// only spaces and tabs between the tokens, no condition. The parser reads these straight from the bytes and offers
 /// them to StatementSink::tryPlainCall before building a Statement.
 struct PlainCall {
   Ident Gate; // its location is the statement's

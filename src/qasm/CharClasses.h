@@ -47,6 +47,46 @@ inline bool isIdentBody(char C) {
 }
 inline bool isDigit(char C) { return hasClass(C, ClassDigit); }
 
+/// The extent of a number by the lexer's grammar:
+///   real ::= ([0-9]+ '.' [0-9]* | [0-9]* '.' [0-9]+) ([eE][-+]?[0-9]+)?
+///          | [0-9]+ [eE][-+]?[0-9]+
+/// from `Start`, a digit or a '.' before a digit.
+struct NumberExtent {
+  const char *End = nullptr;         // one past the last byte
+  bool IsReal = false;               // a dot or an exponent
+  const char *BadExponent = nullptr; // set when an exponent has no digits:
+                                     // the byte where they should start
+};
+
+inline NumberExtent scanNumberExtent(const char *Start) {
+  NumberExtent N;
+  const char *P = Start;
+  while (isDigit(*P))
+    ++P;
+  if (*P == '.') {
+    N.IsReal = true;
+    ++P;
+    while (isDigit(*P))
+      ++P;
+  }
+  if (*P == 'e' || *P == 'E') {
+    const char *Digits = P + 1;
+    if (*Digits == '+' || *Digits == '-')
+      ++Digits;
+    if (!isDigit(*Digits)) {
+      N.BadExponent = Digits;
+      N.End = Digits;
+      return N;
+    }
+    N.IsReal = true;
+    P = Digits;
+    while (isDigit(*P))
+      ++P;
+  }
+  N.End = P;
+  return N;
+}
+
 /// The keyword spelled by `Name`, or Tok::Identifier. The first letter
 /// leaves at most two candidates, so ordinary names (q, cx, rz) cost a
 /// length comparison or none.

@@ -185,28 +185,12 @@ LLVM_ATTRIBUTE_ALWAYS_INLINE Token Lexer::lexIdentifier(const char *Start) {
 ///        | [0-9]+ [eE][-+]?[0-9]+          (accepted: published files use it)
 /// nninteger ::= [1-9]+[0-9]* | 0
 LLVM_ATTRIBUTE_ALWAYS_INLINE Token Lexer::lexNumber(const char *Start) {
-  const char *P = Start;
-  while (isDigit(*P))
-    ++P;
-  bool IsReal = false;
-  if (*P == '.') {
-    IsReal = true;
-    ++P;
-    while (isDigit(*P))
-      ++P;
-  }
-  if (*P == 'e' || *P == 'E') {
-    const char *Digits = P + 1;
-    if (*Digits == '+' || *Digits == '-')
-      ++Digits;
-    if (!isDigit(*Digits))
-      return error(Start, unsigned(Digits - Start),
-                   "expected digits after the exponent of a number");
-    IsReal = true;
-    P = Digits;
-    while (isDigit(*P))
-      ++P;
-  }
+  NumberExtent N = scanNumberExtent(Start);
+  if (N.BadExponent)
+    return error(Start, unsigned(N.BadExponent - Start),
+                 "expected digits after the exponent of a number");
+  const char *P = N.End;
+  bool IsReal = N.IsReal;
   Cur = P;
   if (isIdentStart(*P))
     return error(Start, unsigned(P - Start) + 1,

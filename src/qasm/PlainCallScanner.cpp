@@ -28,26 +28,11 @@ const char *scanNumber(const char *P, double &Value) {
   const char *Start = P;
   if (!isDigit(*P) && !(*P == '.' && isDigit(P[1])))
     return nullptr;
-  while (isDigit(*P))
-    ++P;
-  bool IsReal = false;
-  if (*P == '.') {
-    IsReal = true;
-    ++P;
-    while (isDigit(*P))
-      ++P;
-  }
-  if (*P == 'e' || *P == 'E') {
-    const char *Digits = P + 1;
-    if (*Digits == '+' || *Digits == '-')
-      ++Digits;
-    if (!isDigit(*Digits))
-      return nullptr;
-    IsReal = true;
-    P = Digits;
-    while (isDigit(*P))
-      ++P;
-  }
+  NumberExtent N = scanNumberExtent(Start);
+  if (N.BadExponent)
+    return nullptr;
+  P = N.End;
+  bool IsReal = N.IsReal;
   if (isIdentStart(*P) || (!IsReal && P - Start > 1 && *Start == '0'))
     return nullptr;
   auto [End, Ec] = std::from_chars(Start, P, Value);

@@ -6,6 +6,7 @@
 #include "llvm/ADT/SmallVector.h"
 
 #include <algorithm>
+#include <memory>
 
 namespace revbound::analysis {
 
@@ -19,7 +20,7 @@ public:
       : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
         LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
-        PredOp(C.Wires.size(), NoOp), PredWire(C.Wires.size(), 0) {
+        Pred(std::make_unique_for_overwrite<PathStep[]>(C.Wires.size())) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
     for (auto &F : Free)
@@ -58,8 +59,14 @@ private:
   std::vector<uint64_t> FirstUse, LastUse; // per qubit, for the volume
   std::vector<uint32_t> LastOp;    // op that last advanced each wire (writer)
   std::vector<uint32_t> LastFree;  // op that last pushed a bit's Free time
-  std::vector<uint32_t> PredOp;    // per op wire slot: op before it on a longest path
-  std::vector<uint32_t> PredWire;  // per op wire slot: the wire that path came in on
+  // Per op wire slot, where a longest path into it comes from. Every op
+  // with wires writes all its slots before finish() reads any, so the
+  // array starts unfilled: for a flat file it is the largest one here.
+  struct PathStep {
+    uint32_t Op;   // the op before it on the path, or NoOp
+    uint32_t Wire; // the wire the path came in on
+  };
+  std::unique_ptr<PathStep[]> Pred;
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
 };
 
@@ -111,8 +118,7 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
       return depthOverflow(O);
     if (All) {
       for (unsigned I = 0; I < N; ++I) {
-        PredOp[O.FirstWire + I] = CritOp;
-        PredWire[O.FirstWire + I] = CritWire;
+        Pred[O.FirstWire + I] = {CritOp, CritWire};
       }
       if (UsesQubits)
         for (unsigned I = 0; I < N; ++I)
@@ -159,11 +165,10 @@ llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
       __builtin_add_overflow(StartTwo, uint64_t(W.size() >= 2), &EndTwo) ||
       __builtin_add_overflow(StartT, uint64_t(IsT), &EndT))
     return depthOverflow(O);
-  uint32_t Pred = StartAll > 0 ? LastOp[Critical] : NoOp;
+  uint32_t From = StartAll > 0 ? LastOp[Critical] : NoOp;
   for (unsigned I = 0; I < W.size(); ++I) {
     uint32_t X = W[I];
-    PredOp[O.FirstWire + I] = Pred;
-    PredWire[O.FirstWire + I] = Critical;
+    Pred[O.FirstWire + I] = {From, Critical};
     markUse(X, StartAll, EndAll);
     All[X] = EndAll;
     Two[X] = EndTwo;
@@ -233,8 +238,8 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
       Out[J] = Best;
       Latest = std::max(Latest, Best);
       if (All) {
-        PredOp[O.FirstWire + J] = In[From] > 0 ? InOp[From] : NoOp;
-        PredWire[O.FirstWire + J] = InWire[From];
+        Pred[O.FirstWire + J] = {In[From] > 0 ? InOp[From] : NoOp,
+                                 InWire[From]};
       }
     }
     for (unsigned J = 0; J < K; ++J)
@@ -314,8 +319,9 @@ llvm::Expected<Schedule> Scheduler::finish() {
       if (Global == Wire)
         Slot = I;
     }
-    Wire = PredWire[O.FirstWire + Slot];
-    Op = PredOp[O.FirstWire + Slot];
+    const PathStep &Step = Pred[O.FirstWire + Slot];
+    Wire = Step.Wire;
+    Op = Step.Op;
   }
   std::reverse(Out.CriticalOps.begin(), Out.CriticalOps.end());
   return Out;

@@ -110,11 +110,12 @@ llvm::Error compileExpr(const Expr *Root, llvm::ArrayRef<Ident> Scope,
 }
 
 /// A direct-mapped cache in front of a StringMap that never loses an entry.
-/// Flat files name the same few gates and registers on every line; a hit
-/// costs a short hash and one comparison instead of a probe of the map.
-/// The value is read through the cached entry and StringMap entries never
-/// move, so a name that gets a new value (a library gate replaced by the
-/// user's own) needs no invalidation. Colliding names only miss.
+/// Flat files name the same few gates and registers on every line; a name
+/// of up to 8 bytes is packed into an integer as it is hashed, so a hit is
+/// one comparison instead of a probe of the map and a memcmp. The value is
+/// read through the cached entry and StringMap entries never move, so a
+/// name that gets a new value (a library gate replaced by the user's own)
+/// needs no invalidation. Longer names and colliding names only miss.
 template <typename ValueT> class NameCache {
 public:
   using Entry = llvm::StringMapEntry<ValueT>;
@@ -123,27 +124,36 @@ public:
 
   /// The entry for `Name`, or null if the map has none.
   const Entry *find(llvm::StringRef Name) {
-    const Entry *&Slot = Slots[slotOf(Name)];
-    if (Slot && Slot->getKey() == Name)
-      return Slot;
-    auto It = Map.find(Name);
-    if (It == Map.end())
-      return nullptr;
-    Slot = &*It;
-    return Slot;
+    if (Name.size() > sizeof(uint64_t) || Name.empty())
+      return lookup(Name);
+    // The bytes, first one most significant. A name has no NUL, so no two
+    // names of 1..8 bytes pack to one key, and no name packs to 0.
+    uint64_t Key = 0;
+    for (char Ch : Name)
+      Key = Key << 8 | static_cast<unsigned char>(Ch);
+    Slot &S = Slots[(Key * 0x9E3779B97F4A7C15u) >> 58]; // Fibonacci hashing
+    if (S.Key == Key)
+      return S.Target;
+    const Entry *Found = lookup(Name);
+    if (Found)
+      S = {Key, Found};
+    return Found;
   }
 
 private:
-  static constexpr unsigned NumSlots = 64;
-  static unsigned slotOf(llvm::StringRef Name) {
-    unsigned H = 0;
-    for (char Ch : Name)
-      H = H * 33 + static_cast<unsigned char>(Ch);
-    return H % NumSlots;
+  struct Slot {
+    uint64_t Key = 0; // 0: empty
+    const Entry *Target = nullptr;
+  };
+  static constexpr unsigned NumSlots = 64; // the shift above keeps 6 bits
+
+  const Entry *lookup(llvm::StringRef Name) const {
+    auto It = Map.find(Name);
+    return It == Map.end() ? nullptr : &*It;
   }
 
   const llvm::StringMap<ValueT> &Map;
-  std::array<const Entry *, NumSlots> Slots{};
+  std::array<Slot, NumSlots> Slots{};
 };
 
 /// A resolved top-level operand: one wire, or a whole register.
@@ -579,8 +589,12 @@ bool Elaborator::tryPlainCall(const PlainCall &Call) {
   O.FirstParam = uint32_t(C.Params.size());
   O.Cond = ir::NoCondition;
   O.Loc = Call.Gate.Loc;
-  C.Params.insert(C.Params.end(), Call.Params.begin(), Call.Params.end());
-  C.Wires.insert(C.Wires.end(), Wires, Wires + Arity);
+  // push_back, not a range insert: the general insert's bookkeeping for a
+  // middle position costs more than these one to three elements.
+  for (double V : Call.Params)
+    C.Params.push_back(V);
+  for (unsigned A = 0; A < Arity; ++A)
+    C.Wires.push_back(Wires[A]);
   C.Ops.push_back(O);
   return true;
 }

@@ -164,13 +164,86 @@ struct WireRef {
   const Operand *Source = nullptr;
 };
 
+/// Where a circuit's top-level ops go.
+struct OpPools {
+  std::vector<ir::Op> &Ops;
+  std::vector<uint32_t> &Wires;
+  std::vector<double> &Params;
+};
+
+/// StatementSink::tryPlainCall's rules, against names it only reads: those
+/// of the Elaborator itself, or a fork's copies on the second thread.
+class PlainCallAppender {
+public:
+  PlainCallAppender(const llvm::StringMap<ir::GateId> &GateByName,
+                    const std::vector<ir::GateDef> &Gates,
+                    const llvm::StringMap<uint32_t> &RegisterByName,
+                    const std::vector<ir::Register> &QRegs)
+      : Gates(Gates), QRegs(QRegs), GateCache(GateByName),
+        RegisterCache(RegisterByName) {}
+
+  /// Adds `Call` to `To` if applyGate would take it without a diagnostic
+  /// and `To` holds fewer than `MaxOps` ops; otherwise changes nothing.
+  bool append(const PlainCall &Call, uint64_t MaxOps, OpPools To);
+
+private:
+  const std::vector<ir::GateDef> &Gates;
+  const std::vector<ir::Register> &QRegs;
+  NameCache<ir::GateId> GateCache;
+  NameCache<uint32_t> RegisterCache; // index * 2 + (1 for quantum)
+};
+
+/// A fork for StatementSink::forkPlainCalls: copies of the names, and pools
+/// of its own that joinPlainCalls appends to the circuit's.
+class PlainCallFork : public PlainCallSink {
+public:
+  PlainCallFork(const ir::Circuit &C,
+                const llvm::StringMap<uint32_t> &RegisterByName,
+                uint64_t MaxOps, uint64_t OpsEstimate)
+      : GateByName(C.GateByName), Gates(C.Gates),
+        RegisterByName(RegisterByName), QRegs(C.QRegs), MaxOps(MaxOps),
+        NumRegisters(C.QRegs.size() + C.CRegs.size()) {
+    Ops.reserve(OpsEstimate);
+    Wires.reserve(2 * OpsEstimate);
+  }
+
+  bool tryPlainCall(const PlainCall &Call) override {
+    return Appender.append(Call, MaxOps, {Ops, Wires, Params});
+  }
+
+  /// True when `C` has declared nothing since the fork was made.
+  bool sameNamesAs(const ir::Circuit &C) const {
+    return Gates.size() == C.Gates.size() &&
+           NumRegisters == C.QRegs.size() + C.CRegs.size();
+  }
+
+  std::vector<ir::Op> Ops;
+  std::vector<uint32_t> Wires;
+  std::vector<double> Params;
+
+private:
+  // Declarations only ever add a gate or a register, so equal counts mean
+  // equal names.
+  const llvm::StringMap<ir::GateId> GateByName;
+  const std::vector<ir::GateDef> Gates;
+  const llvm::StringMap<uint32_t> RegisterByName;
+  const std::vector<ir::Register> QRegs;
+  const uint64_t MaxOps;
+  const size_t NumRegisters;
+  PlainCallAppender Appender{GateByName, Gates, RegisterByName, QRegs};
+};
+
 class Elaborator : public StatementSink {
 public:
   Elaborator(const FrontendLimits &Limits, DiagnosticSink &Warnings)
       : Limits(Limits), Warnings(Warnings) {}
 
   llvm::Error onStatement(const Statement &S) override;
-  bool tryPlainCall(const PlainCall &Call) override;
+  bool tryPlainCall(const PlainCall &Call) override {
+    return Plain.append(Call, Limits.MaxOps, {C.Ops, C.Wires, C.Params});
+  }
+  std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
+  bool joinPlainCalls(PlainCallSink &Fork) override;
   /// Sizes the op and wire pools for the main file's text.
   void reserveFor(llvm::StringRef MainText);
   ir::Circuit take() { return std::move(C); }
@@ -213,6 +286,7 @@ private:
   llvm::StringMap<uint32_t> RegisterByName; // index * 2 + (1 for quantum)
   NameCache<uint32_t> RegisterCache{RegisterByName};
   NameCache<ir::GateId> GateCache{C.GateByName};
+  PlainCallAppender Plain{C.GateByName, C.Gates, RegisterByName, C.QRegs};
   llvm::SmallVector<WireRef, 4> Refs;     // reused per statement
   llvm::SmallVector<uint32_t, 8> Qubits;  // reused per statement
 };
@@ -228,14 +302,18 @@ const ir::Register *Elaborator::findRegister(llvm::StringRef Name,
   return IsQuantum ? &C.QRegs[Code >> 1] : &C.CRegs[Code >> 1];
 }
 
+// Few op statements are shorter than "h q[0];" and a newline, so this
+// bound spares the pools of a flat file their repeated doubling (copies,
+// and twice the memory for a moment); broadcasts and includes may still
+// grow them. Where it is loose it costs address space, not memory: pages
+// never written are never mapped. Counting the ';' instead would be
+// tighter but reads the whole file once more.
+static uint64_t estimateOps(llvm::StringRef Text, uint64_t MaxOps) {
+  return std::min<uint64_t>(Text.size() / 8, MaxOps);
+}
+
 void Elaborator::reserveFor(llvm::StringRef MainText) {
-  // Most statements of a flat file are one op and end in ';', so this
-  // estimate spares the pools their repeated doubling (copies, and twice the
-  // memory for a moment); broadcasts and includes may still grow them. The
-  // cap keeps what a file of ';' can make us reserve to a few times its own
-  // size: few op statements are shorter than "h q[0];" and a newline.
-  uint64_t Estimate = std::min<uint64_t>(
-      {MainText.count(';'), MainText.size() / 8, Limits.MaxOps});
+  uint64_t Estimate = estimateOps(MainText, Limits.MaxOps);
   C.Ops.reserve(Estimate);
   C.Wires.reserve(2 * Estimate); // gates on one or two qubits are the norm
 }
@@ -557,26 +635,30 @@ llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
 
 // applyGate's rules for the plain form, checked before anything is added;
 // whatever would be a diagnostic is left to applyGate.
-bool Elaborator::tryPlainCall(const PlainCall &Call) {
+bool PlainCallAppender::append(const PlainCall &Call, uint64_t MaxOps,
+                               OpPools To) {
   const auto *Entry = GateCache.find(Call.Gate.Name);
   if (!Entry)
     return false;
   ir::GateId Id = Entry->getValue();
-  const ir::GateDef &Def = C.gate(Id);
+  const ir::GateDef &Def = Gates[Id];
   unsigned Arity = unsigned(Call.Args.size());
   if (Call.Params.size() != Def.numParams() || Arity != Def.numQubits() ||
-      C.Ops.size() >= Limits.MaxOps)
+      To.Ops.size() >= MaxOps)
     return false;
   uint32_t Wires[8];
   if (Arity > std::size(Wires))
     return false;
   for (unsigned A = 0; A < Arity; ++A) {
     const PlainOperand &Arg = Call.Args[A];
-    bool IsQuantum = false;
-    const ir::Register *R = findRegister(Arg.Reg.Name, IsQuantum);
-    if (!R || !IsQuantum || Arg.Index >= R->Size)
+    const auto *Reg = RegisterCache.find(Arg.Reg.Name);
+    uint32_t Code = Reg ? Reg->getValue() : 0;
+    if (!(Code & 1)) // no such register, or a classical one
       return false;
-    Wires[A] = R->Offset + uint32_t(Arg.Index);
+    const ir::Register &R = QRegs[Code >> 1];
+    if (Arg.Index >= R.Size)
+      return false;
+    Wires[A] = R.Offset + uint32_t(Arg.Index);
     for (unsigned B = 0; B < A; ++B)
       if (Wires[B] == Wires[A])
         return false;
@@ -584,18 +666,41 @@ bool Elaborator::tryPlainCall(const PlainCall &Call) {
   ir::Op O;
   O.Kind = ir::OpKind::Gate;
   O.Gate = Id;
-  O.FirstWire = uint32_t(C.Wires.size());
+  O.FirstWire = uint32_t(To.Wires.size());
   O.NumWires = Arity;
-  O.FirstParam = uint32_t(C.Params.size());
+  O.FirstParam = uint32_t(To.Params.size());
   O.Cond = ir::NoCondition;
   O.Loc = Call.Gate.Loc;
   // push_back, not a range insert: the general insert's bookkeeping for a
   // middle position costs more than these one to three elements.
   for (double V : Call.Params)
-    C.Params.push_back(V);
+    To.Params.push_back(V);
   for (unsigned A = 0; A < Arity; ++A)
-    C.Wires.push_back(Wires[A]);
-  C.Ops.push_back(O);
+    To.Wires.push_back(Wires[A]);
+  To.Ops.push_back(O);
+  return true;
+}
+
+std::unique_ptr<PlainCallSink>
+Elaborator::forkPlainCalls(llvm::StringRef Text) {
+  return std::make_unique<PlainCallFork>(C, RegisterByName, Limits.MaxOps,
+                                         estimateOps(Text, Limits.MaxOps));
+}
+
+bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
+  auto &Fork = static_cast<PlainCallFork &>(Sink); // made by forkPlainCalls
+  if (!Fork.sameNamesAs(C) || C.Ops.size() + Fork.Ops.size() > Limits.MaxOps)
+    return false;
+  uint32_t WireBase = uint32_t(C.Wires.size());
+  uint32_t ParamBase = uint32_t(C.Params.size());
+  C.Ops.reserve(C.Ops.size() + Fork.Ops.size());
+  for (ir::Op O : Fork.Ops) {
+    O.FirstWire += WireBase;
+    O.FirstParam += ParamBase;
+    C.Ops.push_back(O);
+  }
+  C.Wires.insert(C.Wires.end(), Fork.Wires.begin(), Fork.Wires.end());
+  C.Params.insert(C.Params.end(), Fork.Params.begin(), Fork.Params.end());
   return true;
 }
 

@@ -17,16 +17,27 @@
 #include "llvm/Support/Compiler.h"
 #include "llvm/Support/MemoryBuffer.h"
 
+#include <atomic>
 #include <charconv>
 #include <cstdlib>
+#include <cstring>
 #include <optional>
+#include <system_error>
+#include <thread>
 #include <fmt/format.h>
 
 namespace revbound::qasm {
 
-StatementSink::~StatementSink() = default;
+PlainCallSink::~PlainCallSink() = default;
 
 bool StatementSink::tryPlainCall(const PlainCall &) { return false; }
+
+std::unique_ptr<PlainCallSink>
+StatementSink::forkPlainCalls(llvm::StringRef) {
+  return nullptr;
+}
+
+bool StatementSink::joinPlainCalls(PlainCallSink &) { return false; }
 
 unsigned Operand::length() const {
   if (!HasIndex)
@@ -124,7 +135,75 @@ private:
   Statement Stmt; // reused so that a flat file costs no allocation per line
   PlainCall Plain; // likewise, for the plain calls read past the lexer
   std::vector<std::string> IncludeStack;
+
+  /// The main file's second half, read by a second thread
+  /// (ParserOptions::MinBytesForSecondThread).
+  struct SecondReader {
+    std::unique_ptr<PlainCallSink> Fork;
+    const char *Start = nullptr; // the first byte of a line
+    const char *End = nullptr;   // after its last call taken, or null
+    std::atomic<bool> Cancel{false};
+    std::thread Thread;
+    ~SecondReader() {
+      Cancel = true;
+      if (Thread.joinable())
+        Thread.join();
+    }
+  };
+  void startSecondReader(const char *From);
+  void joinSecondReader();
+  std::unique_ptr<SecondReader> Second;
+  bool SecondTried = false;
+  bool InMain = false;
 };
+
+// Splits what is left after the main file's first plain call at the line
+// that starts past its middle, and reads from there on another thread. The
+// split point needs no other care: whatever might make the two readings
+// differ makes joinSecondReader discard the second one.
+void Parser::startSecondReader(const char *From) {
+  SecondTried = true;
+  const char *End = L->bufferEnd();
+  uint64_t Left = uint64_t(End - From);
+  if (Left < Opts.MinBytesForSecondThread || Left < 2)
+    return;
+  const char *Mid = From + Left / 2;
+  const void *LineEnd = std::memchr(Mid, '\n', size_t(End - Mid));
+  if (!LineEnd)
+    return;
+  const char *Start = static_cast<const char *>(LineEnd) + 1;
+  std::unique_ptr<PlainCallSink> Fork =
+      Sink.forkPlainCalls(llvm::StringRef(Start, size_t(End - Start)));
+  if (!Fork)
+    return;
+  auto R = std::make_unique<SecondReader>();
+  R->Fork = std::move(Fork);
+  R->Start = Start;
+  SecondReader *Reader = R.get();
+  try {
+    R->Thread = std::thread([Reader] {
+      Reader->End =
+          scanPlainRun(Reader->Start, *Reader->Fork, Reader->Cancel);
+    });
+  } catch (const std::system_error &) {
+    return; // no thread to be had: everything is read on this one
+  }
+  Second = std::move(R);
+}
+
+// Called at the first statement that starts at or past the second reader's
+// start. Its calls stand for ours only when no statement of ours straddles
+// that start, so that ours would begin there too, and when the sink agrees
+// that nothing they depend on has changed.
+void Parser::joinSecondReader() {
+  std::unique_ptr<SecondReader> R = std::move(Second);
+  R->Thread.join();
+  if (!R->End || PrevEnd > R->Start || !Sink.joinPlainCalls(*R->Fork))
+    return;
+  L->resumeAt(R->End);
+  PrevEnd = R->End;
+  Cur = L->lex();
+}
 
 llvm::Error Parser::unexpected(const char *What) {
   if (at(Tok::Error))
@@ -171,18 +250,27 @@ llvm::Error Parser::parseFile(unsigned BufferId, bool IsMain, bool IsLibrary,
   Token SavedCur = Cur;
   const char *SavedPrevEnd = PrevEnd;
   PrevEnd = nullptr;
-  bool SavedLib = InLibrary;
+  bool SavedLib = InLibrary, SavedMain = InMain;
   L = &Lex;
   Lex.collectAnnotations(Annotations);
   InLibrary = IsLibrary;
+  InMain = IsMain;
   lex();
   llvm::Error Err = parseHeader(IsMain);
-  while (!Err && !at(Tok::Eof))
+  while (!Err && !at(Tok::Eof)) {
+    if (IsMain && Second && Cur.loc().getPointer() >= Second->Start) {
+      joinSecondReader();
+      continue; // it may have read to the end
+    }
     Err = parseStatement(Depth);
+  }
+  if (IsMain)
+    Second.reset(); // not reached: an error came first
   L = SavedL;
   Cur = SavedCur;
   PrevEnd = SavedPrevEnd;
   InLibrary = SavedLib;
+  InMain = SavedMain;
   return Err;
 }
 
@@ -236,6 +324,8 @@ llvm::Error Parser::parseStatement(unsigned Depth) {
         After && Sink.tryPlainCall(Plain)) {
       L->resumeAt(After);
       PrevEnd = After;
+      if (InMain && !SecondTried)
+        startSecondReader(After);
       Cur = L->lex();
       return llvm::Error::success();
     }

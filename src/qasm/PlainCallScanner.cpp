@@ -147,4 +147,32 @@ const char *scanPlainCall(const Ident &Gate, const char *After,
   }
 }
 
+const char *scanPlainRun(const char *P, PlainCallSink &Sink,
+                         const std::atomic<bool> &Cancel) {
+  PlainCall Call;
+  const char *LastEnd = nullptr;
+  for (unsigned N = 1;; ++N) {
+    // What the lexer would skip before the next token, less comments: a
+    // `//!` one must reach the lexer's list of annotations.
+    while (isSpace(*P))
+      ++P;
+    if (!isIdentStart(*P))
+      break;
+    const char *Start = P;
+    while (isIdentBody(*P))
+      ++P;
+    Ident Gate{llvm::StringRef(Start, size_t(P - Start)),
+               llvm::SMLoc::getFromPointer(Start)};
+    if (keywordKind(Gate.Name) != Tok::Identifier)
+      break;
+    const char *After = scanPlainCall(Gate, P, Call);
+    if (!After || !Sink.tryPlainCall(Call))
+      break;
+    P = LastEnd = After;
+    if (N % 4096 == 0 && Cancel.load(std::memory_order_relaxed))
+      break;
+  }
+  return LastEnd;
+}
+
 } // namespace revbound::qasm

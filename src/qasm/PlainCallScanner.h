@@ -14,6 +14,8 @@
 
 #include "revbound/qasm/AST.h"
 
+#include <atomic>
+
 namespace revbound::qasm {
 
 /// Reads the rest of a plain call whose gate name `Gate` has just been
@@ -22,6 +24,13 @@ namespace revbound::qasm {
 /// the plain form. `After` must lie in a NUL-terminated buffer.
 const char *scanPlainCall(const Ident &Gate, const char *After,
                           PlainCall &Out);
+
+/// Reads plain calls from `P`, a point between two statements, and hands
+/// each to `Sink` until one is refused, anything else comes (a keyword, a
+/// comment, the end of the buffer), or `Cancel` is set. Returns the byte
+/// after the last call taken, or nullptr if none was.
+const char *scanPlainRun(const char *P, PlainCallSink &Sink,
+                         const std::atomic<bool> &Cancel);
 
 } // namespace revbound::qasm
 

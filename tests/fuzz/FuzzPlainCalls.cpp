@@ -1,8 +1,10 @@
 //===- FuzzPlainCalls.cpp - libFuzzer: both ways of reading agree ---------===//
 //
-// Builds the input with and without the parser's plain-call path
-// (ParserOptions::ReadPlainCalls) and stops on the first difference in the
-// circuit, the error or the warnings (tests/qasm/PlainCallCheck.h). No
+// Builds the input token by token, with the parser's plain-call path
+// (ParserOptions::ReadPlainCalls), and with it split over two threads
+// whatever the input's size (ParserOptions::MinBytesForSecondThread), and
+// stops on the first difference in the circuit, the error or the warnings
+// (tests/qasm/PlainCallCheck.h). No
 // analysis runs, so inputs go through fast; a difference, a crash or a
 // sanitizer report is a finding.
 //

@@ -1,11 +1,14 @@
 //===- PlainCallCheck.h - Both ways of reading a file must agree ----------===//
 //
 // The parser reads plain gate calls straight from the bytes (AST.h,
-// PlainCall) unless ParserOptions::ReadPlainCalls is off. This header builds
-// a text both ways and describes the first difference: in the circuit (ops,
-// wires, parameters to the bit, locations as file:line:col, registers,
-// gates), in the error text or in the warnings. Used by the front-end tests
-// and by the fuzz target FuzzPlainCalls.cpp.
+// PlainCall) unless ParserOptions::ReadPlainCalls is off, and reads the
+// second half of a large file on a second thread
+// (ParserOptions::MinBytesForSecondThread). This header builds a text token
+// by token, plainly on one thread, and plainly on two whatever its size,
+// and describes the first difference: in the circuit (ops, wires,
+// parameters to the bit, locations as file:line:col, registers, gates), in
+// the error text or in the warnings. Used by the front-end tests and by
+// the fuzz target FuzzPlainCalls.cpp.
 //
 //===----------------------------------------------------------------------===//
 #ifndef REVBOUND_TESTS_PLAINCALLCHECK_H
@@ -27,9 +30,13 @@ struct ReadOneWay {
   std::string Warnings;
 };
 
+enum class Way { TokenByToken, Plain, PlainOnTwoThreads };
+
 inline void readOneWay(llvm::StringRef Text, qasm::FrontendOptions Opts,
-                       bool Plain, ReadOneWay &Out) {
-  Opts.Parser.ReadPlainCalls = Plain;
+                       Way How, ReadOneWay &Out) {
+  Opts.Parser.ReadPlainCalls = How != Way::TokenByToken;
+  Opts.Parser.MinBytesForSecondThread =
+      How == Way::PlainOnTwoThreads ? 0 : UINT64_MAX;
   unsigned Id = Out.Files.addBuffer("input.qasm", Text);
   DiagnosticSink Warnings;
   llvm::Expected<ir::Circuit> C =
@@ -55,13 +62,8 @@ inline std::string where(const SourceFiles &F, llvm::SMLoc L) {
   return fmt::format("{}:{}:{}", P.File.str(), P.Line, P.Column);
 }
 
-/// "" when reading `Text` with and without the plain-call path gives the
-/// same result; otherwise the first difference.
-inline std::string plainCallDifference(llvm::StringRef Text,
-                                       const qasm::FrontendOptions &Opts = {}) {
-  ReadOneWay Fast, Slow;
-  readOneWay(Text, Opts, true, Fast);
-  readOneWay(Text, Opts, false, Slow);
+/// "" when `Fast` and `Slow` read the same; otherwise the first difference.
+inline std::string difference(const ReadOneWay &Fast, const ReadOneWay &Slow) {
   if (Fast.Error != Slow.Error)
     return "error: '" + Fast.Error + "' vs '" + Slow.Error + "'";
   if (Fast.Warnings != Slow.Warnings)
@@ -94,6 +96,21 @@ inline std::string plainCallDifference(llvm::StringRef Text,
     if (!Same)
       return fmt::format("op {} differs (at {})", I, where(Slow.Files, Y.Loc));
   }
+  return "";
+}
+
+/// "" when reading `Text` token by token, plainly on one thread and
+/// plainly on two gives the same result; otherwise the first difference.
+inline std::string plainCallDifference(llvm::StringRef Text,
+                                       const qasm::FrontendOptions &Opts = {}) {
+  ReadOneWay Slow, Fast, Split;
+  readOneWay(Text, Opts, Way::TokenByToken, Slow);
+  readOneWay(Text, Opts, Way::Plain, Fast);
+  readOneWay(Text, Opts, Way::PlainOnTwoThreads, Split);
+  if (std::string D = difference(Fast, Slow); !D.empty())
+    return "plain: " + D;
+  if (std::string D = difference(Split, Slow); !D.empty())
+    return "plain on two threads: " + D;
   return "";
 }
 

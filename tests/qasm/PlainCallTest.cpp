@@ -145,4 +145,134 @@ TEST(PlainCall, LimitOnOpsIsTheSameDiagnostic) {
             "");
 }
 
+// The second thread. The split falls at the first line past the middle of
+// what follows the first plain call; these bodies put declarations,
+// straddling statements, comments, errors and limits on either side of it.
+
+/// Records every plain call's gate name and location; its forks record
+/// theirs, and a join appends them.
+class RecordingSink : public qasm::StatementSink {
+public:
+  std::vector<std::string> Calls; // "name@offset"
+  unsigned Forks = 0, Joins = 0;
+  const char *Base = nullptr;
+  bool RefuseJoin = false;
+
+  llvm::Error onStatement(const qasm::Statement &S) override {
+    Calls.push_back("stmt@" + offset(S.Call.Gate.Loc));
+    return llvm::Error::success();
+  }
+  bool tryPlainCall(const qasm::PlainCall &C) override {
+    Calls.push_back(C.Gate.Name.str() + "@" + offset(C.Gate.Loc));
+    return true;
+  }
+  std::unique_ptr<qasm::PlainCallSink> forkPlainCalls(llvm::StringRef) override {
+    ++Forks;
+    auto F = std::make_unique<RecordingSink>();
+    F->Base = Base;
+    return F;
+  }
+  bool joinPlainCalls(qasm::PlainCallSink &Fork) override {
+    if (RefuseJoin)
+      return false;
+    ++Joins;
+    auto &F = static_cast<RecordingSink &>(Fork);
+    Calls.insert(Calls.end(), F.Calls.begin(), F.Calls.end());
+    return true;
+  }
+
+private:
+  std::string offset(llvm::SMLoc L) const {
+    return std::to_string(L.getPointer() - Base);
+  }
+};
+
+std::vector<std::string> record(const std::string &Text, uint64_t MinBytes,
+                                RecordingSink &Sink) {
+  SourceFiles Files;
+  unsigned Id = Files.addBuffer("t.qasm", Text);
+  Sink.Base = Files.mgr().getMemoryBuffer(Id)->getBufferStart();
+  qasm::ParserOptions Opts;
+  Opts.MinBytesForSecondThread = MinBytes;
+  DiagnosticSink Warnings;
+  llvm::consumeError(qasm::parseProgram(Files, Id, Opts, Sink, Warnings));
+  return Sink.Calls;
+}
+
+std::string manyLines(unsigned N, const char *Line) {
+  std::string Out;
+  for (unsigned I = 0; I < N; ++I)
+    Out += Line;
+  return Out;
+}
+
+TEST(PlainCallSecondThread, JoinsAndReadsEachCallOnce) {
+  std::string Text = "qreg q[2];\n" + manyLines(200, "h q[0];\ncx q[0], q[1];\n");
+  RecordingSink One, Two;
+  std::vector<std::string> Alone = record(Text, UINT64_MAX, One);
+  EXPECT_EQ(One.Forks, 0u);
+  EXPECT_EQ(record(Text, 0, Two), Alone);
+  EXPECT_EQ(Two.Forks, 1u);
+  EXPECT_EQ(Two.Joins, 1u);
+  EXPECT_EQ(Alone.size(), 401u); // the qreg, then 400 calls
+  // The threshold is on the bytes left after the first call.
+  RecordingSink Big;
+  record(Text, Text.size(), Big);
+  EXPECT_EQ(Big.Forks, 0u);
+}
+
+TEST(PlainCallSecondThread, RefusedJoinReadsOnOneThread) {
+  std::string Text = "qreg q[2];\n" + manyLines(200, "h q[0];\n");
+  RecordingSink One, Two;
+  Two.RefuseJoin = true;
+  EXPECT_EQ(record(Text, 0, Two), record(Text, UINT64_MAX, One));
+  EXPECT_EQ(Two.Forks, 1u);
+}
+
+TEST(PlainCallSecondThread, StatementAcrossTheSplitIsNotJoined) {
+  // A conditional spread over every line after the first call: the split
+  // falls inside it, and the second reader takes its body for a plain
+  // call of its own, which must not be used.
+  std::string Text = "qreg q[2];\ncreg c[2];\nh q[0];\nif (c==1)\n" +
+                     manyLines(100, "\n") + "h q[1];\nh q[0];\n";
+  RecordingSink One, Two;
+  EXPECT_EQ(record(Text, 0, Two), record(Text, UINT64_MAX, One));
+  EXPECT_EQ(Two.Forks, 1u);
+  EXPECT_EQ(Two.Joins, 0u);
+}
+
+TEST(PlainCallSecondThread, SameCircuitWhateverFallsAroundTheSplit) {
+  const std::string Head = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                           "qreg q[4];\ncreg c[4];\nh q[0];\n";
+  const std::string Half = manyLines(50, "cx q[0], q[1];\nrz(pi/8) q[2];\n");
+  for (const char *Middle : {
+           "",                                  // only plain calls
+           "qreg r[2];\nh r[0];\n",             // a declaration before it
+           "gate g a { h a; }\ng q[0];\n",      // a definition
+           "gate rz(t) a { u1(t) a; }\n",       // rz means another gate
+           "measure q[0] -> c[0];\nreset q[1];\n",
+           "if (c==1) x q[3];\n",
+           "// a comment\n//! role q[3] ancilla\n",
+           "h q[9];\n",                         // an error
+           "cx q[1],\nq[2];\n",                 // two lines
+       }) {
+    EXPECT_EQ(test::plainCallDifference(Head + Half + Middle + Half), "")
+        << Middle;
+    EXPECT_EQ(test::plainCallDifference(Head + Middle + Half + Half), "")
+        << Middle;
+    EXPECT_EQ(test::plainCallDifference(Head + Half + Half + Middle), "")
+        << Middle;
+  }
+}
+
+TEST(PlainCallSecondThread, LimitOnOpsAcrossTheSplit) {
+  const std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                           "qreg q[2];\n" + manyLines(100, "h q[0];\n");
+  for (uint64_t Max : {1u, 50u, 99u, 100u, 101u}) {
+    qasm::FrontendOptions Opts;
+    Opts.Limits.MaxOps = Max;
+    EXPECT_EQ(test::plainCallDifference(Text, Opts), "") << Max;
+  }
+}
+
 } // namespace

@@ -15,6 +15,7 @@
 #include "llvm/Support/SMLoc.h"
 
 #include <cstdint>
+#include <memory>
 #include <vector>
 
 namespace revbound::qasm {
@@ -116,16 +117,36 @@ struct PlainCall {
   llvm::SmallVector<PlainOperand, 3> Args;
 };
 
-/// Receives statements in source order; an error stops the parse.
-class StatementSink {
+/// Takes plain calls, each only when it is certain to succeed.
+class PlainCallSink {
 public:
-  virtual ~StatementSink();
-  virtual llvm::Error onStatement(const Statement &S) = 0;
+  virtual ~PlainCallSink();
   /// Applies `Call` and returns true only when it is certain to succeed.
   /// False changes nothing: the parser then reads the same statement the
   /// ordinary way and hands it to onStatement, so every diagnostic comes
   /// from one place.
-  virtual bool tryPlainCall(const PlainCall &Call);
+  virtual bool tryPlainCall(const PlainCall &Call) = 0;
+};
+
+/// Receives statements in source order; an error stops the parse.
+class StatementSink : public PlainCallSink {
+public:
+  virtual llvm::Error onStatement(const Statement &S) = 0;
+  /// Refuses every call unless overridden.
+  bool tryPlainCall(const PlainCall &Call) override;
+
+  /// For reading the plain calls of a later part of a large file on a
+  /// second thread while the parser reads up to it
+  /// (ParserOptions::MinBytesForSecondThread): a sink that resolves calls
+  /// as this one would now, against copies of its names, into pools of its
+  /// own, so that it shares nothing with this sink. Null when unsupported.
+  /// `Text` is what the fork will read, for sizing its pools.
+  virtual std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text);
+  /// Adds what `Fork` (made by forkPlainCalls) took, as if each call had
+  /// come through tryPlainCall here and now, and returns true; or returns
+  /// false and changes nothing, when that would not be the same: a name
+  /// was declared since the fork, or a limit would be passed.
+  virtual bool joinPlainCalls(PlainCallSink &Fork);
 };
 
 } // namespace revbound::qasm

@@ -96,6 +96,8 @@ public:
   /// Continues lexing at `P`, a point of this buffer after position() that
   /// another reader (the plain-call scanner) has consumed up to.
   void resumeAt(const char *P) { Cur = P; }
+  /// One past the buffer's last byte (its NUL).
+  const char *bufferEnd() const { return End; }
 
   /// For an Error token: what is wrong (set when lex() returned Tok::Error).
   const std::string &errorMessage() const { return ErrorMessage; }

@@ -6,6 +6,7 @@
 #include "revbound/support/Diagnostics.h"
 #include "revbound/support/SourceFiles.h"
 
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -19,6 +20,12 @@ struct ParserOptions {
   /// Off, every statement goes token by token; the results are the same,
   /// which the tests and a fuzz target check by comparing the two.
   bool ReadPlainCalls = true;
+  /// When the main file still holds this many bytes after its first plain
+  /// call, a second thread reads the plain calls of its second half while
+  /// the parser reads up to there (StatementSink::forkPlainCalls); the
+  /// result is the same as reading on one thread, and is discarded for it
+  /// whenever it might not be. 0 splits every file; UINT64_MAX none.
+  uint64_t MinBytesForSecondThread = uint64_t(1) << 20;
 };
 
 /// Parses buffer `BufferId` of `Files` and streams its statements, and those

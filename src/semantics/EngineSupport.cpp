@@ -26,8 +26,14 @@ double shannonEntropy(const std::vector<double> &Weights) {
 }
 
 double clampBits(double Bits, double MaxBits) {
-  if (!(Bits > 1e-12))
+  if (!(Bits > WholeBitsTolerance))
     return 0;
+  // Entropies are sums of many terms; a uniformly random bit comes out as
+  // 0.9999999999999999 as often as 1. No figure is that precise, so values
+  // this close to a whole number of bits are that number.
+  double Whole = std::round(Bits);
+  if (std::abs(Bits - Whole) <= WholeBitsTolerance * std::max(1.0, Whole))
+    Bits = Whole;
   return std::min(Bits, MaxBits);
 }
 

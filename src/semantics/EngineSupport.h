@@ -25,8 +25,14 @@ double binaryEntropy(double P);
 /// (normalised here; zero weights are skipped).
 double shannonEntropy(const std::vector<double> &Weights);
 
-/// Clamps an entropy computed in floating point into [0, MaxBits], so that
-/// -1e-16 prints as 0.
+/// How far (relative, and absolute below one bit) an entropy computed in
+/// floating point may lie from a whole number of bits and still be taken
+/// for it.
+inline constexpr double WholeBitsTolerance = 1e-12;
+
+/// Clamps an entropy computed in floating point into [0, MaxBits] and
+/// snaps it to a whole number of bits within WholeBitsTolerance, so that
+/// -1e-16 prints as 0 and 0.9999999999999999 as 1.
 double clampBits(double Bits, double MaxBits);
 
 /// Per qubit, the location of the last top-level operation on it (barriers

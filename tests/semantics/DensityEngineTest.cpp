@@ -118,6 +118,24 @@ TEST(DensityEngine, ResetOfBellHalfRemovesOneBit) {
   expectEvent(L->Events[0], ErasureKind::Reset, 1, ErasureStatus::Exact, 1);
 }
 
+// Checks that a whole bit prints as one, not 0.9999999999999996. After the
+// first reset q[0] is I/2; cx from it onto q[2] = HTH|0>, whose Bloch
+// vector (0, -1/sqrt2, 1/sqrt2) X turns into (0, 1/sqrt2, -1/sqrt2), leaves
+// q[2] the average of the two, I/2: one bit exactly (Bloch-sphere form of a
+// qubit's state, Nielsen & Chuang, 2000, section 4.2). The engine's sums
+// land within round-off of it.
+TEST(DensityEngine, WholeBitIsExactlyOne) {
+  auto E = program("qreg q[3];\nh q[0];\ncx q[0],q[1];\nreset q[1];\n"
+                   "h q[2];\nt q[2];\nh q[2];\nu3(pi/2,pi/3,pi/5) q[0];\n"
+                   "cx q[0],q[2];\nreset q[2];\n");
+  auto L = density(E);
+  ASSERT_TRUE(L);
+  ASSERT_EQ(L->Events.size(), 2u);
+  EXPECT_EQ(L->Events[0].BitsLow, 1.0);
+  EXPECT_EQ(L->Events[1].BitsLow, 1.0);
+  EXPECT_EQ(L->Events[1].BitsHigh, 1.0);
+}
+
 // Checks that resetting a qubit in a known pure state removes nothing: a
 // pure state has zero von Neumann entropy (Nielsen & Chuang, 2000, section
 // 11.3). A basis state is also proved constant.

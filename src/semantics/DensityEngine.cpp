@@ -486,7 +486,9 @@ class DensityRun {
 public:
   DensityRun(const ir::Circuit &C, const EngineOptions &Opts)
       : C(C), Opts(Opts),
-        Expander(C, Opts.MaxMatrixQubits, Opts.MaxExpandedOps) {}
+        Expander(C, Opts.MaxMatrixQubits, Opts.MaxExpandedOps),
+        MaxWork(Opts.Choice == EngineChoice::Density ? Opts.MaxDensityWork
+                                                     : Opts.MaxAutoDensityWork) {}
   llvm::Expected<Ledger> run();
 
 private:
@@ -537,6 +539,21 @@ private:
   std::vector<Branch> Branches;
   std::vector<std::optional<BitCondition>> Conditions;
   bool BudgetNoted = false;
+  // Matrix-entry updates so far: 4^N per branch an operation runs in. The
+  // branches are known only as the run makes them, so the limit is checked
+  // here rather than estimated beforehand.
+  const uint64_t MaxWork;
+  uint64_t Work = 0;
+  /// Counts an operation in `Branches` branches; false once past MaxWork.
+  bool addWork(size_t Branches) {
+    uint64_t Add;
+    if (__builtin_mul_overflow(uint64_t(Branches), uint64_t(1) << (2 * N),
+                               &Add) ||
+        __builtin_add_overflow(Work, Add, &Work))
+      Work = UINT64_MAX;
+    return Work <= MaxWork;
+  }
+  llvm::Error errorTooMuchWork(const ir::Op &O) const;
   Ledger L;
 };
 
@@ -673,10 +690,15 @@ llvm::Error DensityRun::applyGate(const ir::Op &O) {
   if (Where.empty())
     return llvm::Error::success();
   std::optional<ir::GateId> Unknown;
+  bool TooMuchWork = false;
   llvm::SmallVector<unsigned, 8> Qubits;
   auto Visit = [&](const GateStep &S) {
-    if (Unknown)
+    if (Unknown || TooMuchWork)
       return;
+    if (!addWork(Where.size())) {
+      TooMuchWork = true;
+      return;
+    }
     if (!S.U) {
       Unknown = S.Gate;
       return;
@@ -697,6 +719,8 @@ llvm::Error DensityRun::applyGate(const ir::Op &O) {
         "calls were simulated by their whole unitaries",
         Opts.MaxExpandedOps));
   }
+  if (TooMuchWork)
+    return errorTooMuchWork(O);
   if (!Unknown)
     return llvm::Error::success();
   const ir::GateDef &G = C.gate(*Unknown);
@@ -716,6 +740,7 @@ void DensityRun::applyReset(const ir::Op &O) {
   std::vector<size_t> Where = branchesRunning(O);
   if (Where.empty())
     return; // never runs: erases nothing
+  (void)addWork(Where.size()); // the next gate or measurement stops the run
   uint32_t Global = C.wires(O)[0];
   unsigned Q = unsigned(ActiveOf[Global]);
   // A = {q} and, for a conditioned reset, the bits it reads. The branches
@@ -741,10 +766,20 @@ void DensityRun::applyReset(const ir::Op &O) {
   L.Events.push_back(E);
 }
 
+llvm::Error DensityRun::errorTooMuchWork(const ir::Op &O) const {
+  return errorAt(O.Loc,
+                 fmt::format("the density engine passed {} matrix-entry "
+                             "updates here ({} classical branches of {} "
+                             "qubits)",
+                             MaxWork, Branches.size(), N));
+}
+
 llvm::Error DensityRun::applyMeasure(const ir::Op &O) {
   std::vector<size_t> Where = branchesRunning(O);
   if (Where.empty())
     return llvm::Error::success();
+  if (!addWork(Where.size()))
+    return errorTooMuchWork(O);
   uint32_t Bit = C.wires(O)[1];
   unsigned Q = unsigned(ActiveOf[C.wires(O)[0]]);
   unsigned Pos = unsigned(KeyPos[Bit]);

@@ -433,6 +433,39 @@ TEST(DensityEngine, OpaqueGateIsAnError) {
             "^\n");
 }
 
+// Checks that the work limit counts classical branches: 4 qubits (4^4 = 256
+// entries), 1000 gates. On one branch that is 256,000 updates; after three
+// measurements of superposed qubits it is 8 branches and about 2 million,
+// past a limit of 2^20, which the estimate made beforehand (ops x 4^n)
+// cannot see. Under auto the run stops and the classical engine reports;
+// its reason says why. (The limit is the engine's own: no outside source.)
+TEST(DensityEngine, WorkLimitCountsBranches) {
+  std::string Gates;
+  for (int I = 0; I < 250; ++I)
+    Gates += "h q[0];\ncx q[0],q[1];\nh q[2];\ncx q[2],q[3];\n";
+  std::string Branching = "h q[1];\nh q[2];\nh q[3];\nmeasure q[1] -> c[1];\n"
+                          "measure q[2] -> c[2];\nmeasure q[3] -> c[3];\n";
+  std::string Head = "qreg q[4];\ncreg c[4];\n";
+  EngineOptions Opts;
+  Opts.MaxAutoDensityWork = uint64_t(1) << 20;
+  // A reset makes the auto engine look past the structural shortcut.
+  auto OneBranch = program(Head + Gates + "reset q[0];\n");
+  auto Branched = program(Head + Branching + Gates + "reset q[0];\n");
+  ASSERT_TRUE(OneBranch.Circuit && Branched.Circuit);
+  llvm::Expected<Ledger> A = runEngine(*OneBranch.Circuit, Opts);
+  ASSERT_TRUE(bool(A)) << llvm::toString(A.takeError());
+  EXPECT_EQ(A->Engine, EngineKind::Density) << A->Reason;
+  llvm::Expected<Ledger> B = runEngine(*Branched.Circuit, Opts);
+  ASSERT_TRUE(bool(B)) << llvm::toString(B.takeError());
+  EXPECT_NE(B->Engine, EngineKind::Density);
+  EXPECT_NE(B->Reason.find("matrix-entry updates"), std::string::npos)
+      << B->Reason;
+  // An explicit density run stops at its own limit, with the location.
+  Opts.Choice = EngineChoice::Density;
+  Opts.MaxDensityWork = uint64_t(1) << 20;
+  EXPECT_NE(densityError(Branched, Opts).find("test.qasm:"), std::string::npos);
+}
+
 // Checks the qubit limit: the message names the count and the limit.
 TEST(DensityEngine, TooManyQubitsIsAnError) {
   auto E = program("qreg q[4];\nh q[0];\nh q[1];\nh q[2];\nh q[3];\n");

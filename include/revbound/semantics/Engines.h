@@ -32,7 +32,9 @@ struct EngineOptions {
   /// The density engine's widest circuit (--max-density-qubits).
   unsigned MaxDensityQubits = 12;
   /// `Auto` runs the density engine only while 4^qubits times the gate
-  /// applications stays under this, so that it stays within seconds.
+  /// applications stays under this, so that it stays within seconds; the
+  /// run itself stops there too, counting every classical branch a gate
+  /// runs in (measurements multiply them), and auto falls back.
   uint64_t MaxAutoDensityWork = uint64_t(1) << 33;
   /// `Auto` runs the classical engine only on circuits that expand to at
   /// most this many operations; larger ones get the structural engine, so
@@ -41,7 +43,8 @@ struct EngineOptions {
   /// million operations (docs/limits.md). `--engine classical` still runs
   /// larger ones.
   uint64_t MaxAutoClassicalOps = 1'000'000;
-  /// An explicit density run refuses more than this (a few minutes).
+  /// An explicit density run refuses more than this (a few minutes),
+  /// beforehand and, counting branches, while it runs.
   uint64_t MaxDensityWork = uint64_t(1) << 38;
   /// BDD nodes the classical engine may hold before it falls back to
   /// sampling.
@@ -67,8 +70,10 @@ llvm::Expected<Ledger> runEngine(const ir::Circuit &C,
 Ledger runStructural(const ir::Circuit &C, const EngineOptions &Opts);
 Ledger runClassical(const ir::Circuit &C, const EngineOptions &Opts);
 /// Fails when more than MaxDensityQubits qubits are in use (touched by an
-/// operation other than a barrier), on a gate
-/// without a unitary (an opaque gate).
+/// operation other than a barrier), on a gate without a unitary (an opaque
+/// gate), and once the run passes its work limit in matrix-entry updates,
+/// counted over the classical branches as they arise: MaxDensityWork for
+/// an explicit choice (Choice == Density), MaxAutoDensityWork otherwise.
 llvm::Expected<Ledger> runDensity(const ir::Circuit &C,
                                   const EngineOptions &Opts);
 

@@ -12,6 +12,7 @@
 
 #include "llvm/ADT/SmallSet.h"
 #include "llvm/Support/Compiler.h"
+#include "llvm/Support/ErrorHandling.h"
 
 #include <algorithm>
 #include <array>
@@ -243,6 +244,9 @@ public:
     return Plain.append(Call, Limits.MaxOps, {C.Ops, C.Wires, C.Params});
   }
   std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
+  bool defineBuiltinLibrary() override;
+  /// Off for the one Elaborator that reads the library for the memo.
+  bool UseLibraryMemo = true;
   bool joinPlainCalls(PlainCallSink &Fork) override;
   /// Sizes the op and wire pools for the main file's text.
   void reserveFor(llvm::StringRef MainText);
@@ -899,10 +903,54 @@ llvm::Expected<uint32_t> Elaborator::makeCondition(const Statement &S) {
 
 } // namespace
 
+/// The built-in qelib1.inc's gates (after U and CX) as reading its text on
+/// its own gives them, once per process. Their locations are in the text
+/// itself, which SourceFiles::addStaticBuffer does not copy, so they hold in
+/// every run. Reading it here goes through the same parser and Elaborator,
+/// so a change to either changes the memo with it.
+static const std::vector<ir::GateDef> &builtinLibraryGates() {
+  static const std::vector<ir::GateDef> Gates = [] {
+    SourceFiles Files;
+    unsigned Id = Files.addBuffer("<library memo>", "OPENQASM 2.0;\n"
+                                                    "include \"qelib1.inc\";\n");
+    FrontendLimits Limits;
+    DiagnosticSink Warnings;
+    Elaborator E(Limits, Warnings);
+    E.UseLibraryMemo = false;
+    llvm::Error Err = parseProgram(Files, Id, ParserOptions(), E, Warnings);
+    // The built-in text is fixed and tested; an error here is a bug in it.
+    if (Err)
+      llvm::report_fatal_error(llvm::Twine("the built-in qelib1.inc: ") +
+                               llvm::toString(std::move(Err)));
+    ir::Circuit C = E.take();
+    return std::vector<ir::GateDef>(C.Gates.begin() + 2, C.Gates.end());
+  }();
+  return Gates;
+}
+
+// The memo holds gate ids as a file that includes the library before any
+// gate of its own has them, and no limit a user may lower applies to the
+// built-in library but the qubits of a gate; anything else reads the text.
+bool Elaborator::defineBuiltinLibrary() {
+  if (!UseLibraryMemo || C.Gates.size() != 2)
+    return false;
+  const std::vector<ir::GateDef> &Library = builtinLibraryGates();
+  for (const ir::GateDef &G : Library)
+    if (G.numQubits() > Limits.MaxGateQubits)
+      return false;
+  SawStandardLibrary = true;
+  for (const ir::GateDef &G : Library) {
+    C.GateByName[G.Name] = ir::GateId(C.Gates.size());
+    C.Gates.push_back(G);
+  }
+  return true;
+}
+
 llvm::Expected<ir::Circuit> buildCircuit(SourceFiles &Files, unsigned BufferId,
                                          const FrontendOptions &Opts,
                                          DiagnosticSink &Warnings) {
   Elaborator E(Opts.Limits, Warnings);
+  E.UseLibraryMemo = Opts.ReuseBuiltinLibrary;
   E.reserveFor(Files.mgr().getMemoryBuffer(BufferId)->getBuffer());
   std::vector<llvm::StringRef> Annotations;
   if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings,

@@ -39,6 +39,8 @@ StatementSink::forkPlainCalls(llvm::StringRef) {
 
 bool StatementSink::joinPlainCalls(PlainCallSink &) { return false; }
 
+bool StatementSink::defineBuiltinLibrary() { return false; }
+
 unsigned Operand::length() const {
   if (!HasIndex)
     return unsigned(Reg.Name.size());
@@ -392,7 +394,9 @@ llvm::Error Parser::parseInclude(unsigned Depth) {
   }
   LibraryIncluded |= IsLibrary;
   if (IsLibrary && Opts.StandardLibraryPath.empty()) {
-    Id = Files.addBuffer(BuiltinLibraryName, builtinLibraryText());
+    Id = Files.addStaticBuffer(BuiltinLibraryName, builtinLibraryText());
+    if (Sink.defineBuiltinLibrary())
+      return llvm::Error::success();
   } else if (IsLibrary) {
     llvm::Expected<unsigned> Loaded =
         Files.loadNamed(Opts.StandardLibraryPath, NameTok.loc(),

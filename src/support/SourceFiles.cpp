@@ -110,6 +110,16 @@ unsigned SourceFiles::addBuffer(llvm::StringRef Name, llvm::StringRef Contents) 
   return Id;
 }
 
+unsigned SourceFiles::addStaticBuffer(llvm::StringRef Name,
+                                      llvm::StringRef Contents) {
+  unsigned Id = SM.AddNewSourceBuffer(
+      llvm::MemoryBuffer::getMemBuffer(Contents, Name,
+                                       /*RequiresNullTerminator=*/true),
+      llvm::SMLoc());
+  BufferPaths.resize(Id);
+  return Id;
+}
+
 llvm::StringRef SourceFiles::canonicalPath(unsigned BufferId) const {
   if (BufferId == 0 || BufferId > BufferPaths.size())
     return {};

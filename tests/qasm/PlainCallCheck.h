@@ -3,8 +3,10 @@
 // The parser reads plain gate calls straight from the bytes (AST.h,
 // PlainCall) unless ParserOptions::ReadPlainCalls is off, and reads the
 // second half of a large file on a second thread
-// (ParserOptions::MinBytesForSecondThread). This header builds a text token
-// by token, plainly on one thread, and plainly on two whatever its size,
+// (ParserOptions::MinBytesForSecondThread), and takes the built-in
+// qelib1.inc from a copy read once (FrontendOptions::ReuseBuiltinLibrary).
+// This header builds a text token by token reading the library's text,
+// plainly on one thread with the copy, and so on two whatever its size,
 // and describes the first difference: in the circuit (ops, wires,
 // parameters to the bit, locations as file:line:col, registers, gates), in
 // the error text or in the warnings. Used by the front-end tests and by
@@ -35,6 +37,7 @@ enum class Way { TokenByToken, Plain, PlainOnTwoThreads };
 inline void readOneWay(llvm::StringRef Text, qasm::FrontendOptions Opts,
                        Way How, ReadOneWay &Out) {
   Opts.Parser.ReadPlainCalls = How != Way::TokenByToken;
+  Opts.ReuseBuiltinLibrary = How != Way::TokenByToken;
   Opts.Parser.MinBytesForSecondThread =
       How == Way::PlainOnTwoThreads ? 0 : UINT64_MAX;
   unsigned Id = Out.Files.addBuffer("input.qasm", Text);
@@ -77,10 +80,25 @@ inline std::string difference(const ReadOneWay &Fast, const ReadOneWay &Slow) {
       A.Conditions.size() != B.Conditions.size() ||
       A.QubitRoles != B.QubitRoles)
     return "declarations differ";
-  for (size_t G = 0; G < A.Gates.size(); ++G)
-    if (A.Gates[G].Name != B.Gates[G].Name ||
-        A.Gates[G].Body.size() != B.Gates[G].Body.size())
-      return "gate " + A.Gates[G].Name + " differs";
+  for (size_t G = 0; G < A.Gates.size(); ++G) {
+    const ir::GateDef &X = A.Gates[G], &Y = B.Gates[G];
+    bool Same = X.Name == Y.Name && X.Origin == Y.Origin &&
+                X.ParamNames == Y.ParamNames && X.QubitNames == Y.QubitNames &&
+                X.NestingLevel == Y.NestingLevel &&
+                where(Fast.Files, X.Loc) == where(Slow.Files, Y.Loc) &&
+                X.Body.size() == Y.Body.size() &&
+                A.GateByName.lookup(X.Name) == B.GateByName.lookup(Y.Name);
+    for (size_t I = 0; Same && I < X.Body.size(); ++I) {
+      const ir::BodyOp &P = X.Body[I], &Q = Y.Body[I];
+      Same = P.IsBarrier == Q.IsBarrier && P.Callee == Q.Callee &&
+             P.Qubits == Q.Qubits && P.Params.size() == Q.Params.size() &&
+             where(Fast.Files, P.Loc) == where(Slow.Files, Q.Loc);
+      for (size_t K = 0; Same && K < P.Params.size(); ++K)
+        Same = P.Params[K].print(X.ParamNames) == Q.Params[K].print(Y.ParamNames);
+    }
+    if (!Same)
+      return "gate " + X.Name + " differs";
+  }
   if (A.Ops.size() != B.Ops.size())
     return fmt::format("{} ops vs {}", A.Ops.size(), B.Ops.size());
   for (size_t I = 0; I < A.Ops.size(); ++I) {

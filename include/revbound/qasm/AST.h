@@ -134,6 +134,11 @@ public:
   virtual llvm::Error onStatement(const Statement &S) = 0;
   /// Refuses every call unless overridden.
   bool tryPlainCall(const PlainCall &Call) override;
+  /// Defines the built-in qelib1.inc's gates at once, exactly as reading
+  /// its text (builtinLibraryText(), added with SourceFiles::addStaticBuffer
+  /// so that locations agree) would, and returns true; or returns false and
+  /// changes nothing, and the parser reads the text.
+  virtual bool defineBuiltinLibrary();
 
   /// For reading the plain calls of a later part of a large file on a
   /// second thread while the parser reads up to it

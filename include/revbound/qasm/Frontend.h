@@ -36,6 +36,10 @@ struct FrontendOptions {
   ParserOptions Parser;
   FrontendLimits Limits;
   std::vector<RoleOption> Roles; // --role, applied over the file's roles
+  /// Takes the built-in qelib1.inc's gates from a copy read once per
+  /// process instead of reading its text again. Off, it is read every time;
+  /// the circuit is the same, which the tests and a fuzz target check.
+  bool ReuseBuiltinLibrary = true;
 };
 
 /// Parses and elaborates buffer `BufferId` of `Files` into a circuit.

@@ -38,6 +38,10 @@ public:
   /// Adds an in-memory buffer (tests, the built-in library); its includes
   /// resolve against the current directory.
   unsigned addBuffer(llvm::StringRef Name, llvm::StringRef Contents);
+  /// Like addBuffer, for text that outlives every SourceFiles and has a NUL
+  /// right after it (a string literal): it is not copied, so locations in
+  /// it are the same in every SourceFiles that adds it.
+  unsigned addStaticBuffer(llvm::StringRef Name, llvm::StringRef Contents);
 
   /// Resolves and reads `Name` as included from `IncludeLoc`; `Length` is the
   /// byte length of the file-name token, for the diagnostic range.

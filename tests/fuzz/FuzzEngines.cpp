@@ -15,6 +15,7 @@
 // proved constant, one verdict per ancilla qubit, probabilities in [0, 1].
 //
 //===----------------------------------------------------------------------===//
+#include "FuzzLimits.h"
 #include "revbound/qasm/Frontend.h"
 #include "revbound/semantics/Engines.h"
 #include "revbound/semantics/Ledger.h"
@@ -111,22 +112,6 @@ bool sameLedger(const semantics::Ledger &A, const semantics::Ledger &B) {
   return true;
 }
 
-/// Small limits, so that each input takes milliseconds.
-semantics::EngineOptions smallEngineOptions(semantics::EngineChoice Choice) {
-  semantics::EngineOptions Opts;
-  Opts.Choice = Choice;
-  Opts.MaxDensityQubits = 6;
-  Opts.MaxAutoDensityWork = uint64_t(1) << 24;
-  Opts.MaxDensityWork = uint64_t(1) << 26;
-  Opts.MaxAutoClassicalOps = 20'000;
-  Opts.MaxBddNodes = uint64_t(1) << 14;
-  Opts.MaxExpandedOps = 100'000;
-  Opts.MaxMatrixQubits = 6;
-  Opts.Samples = 64;
-  Opts.MaxJointWires = 8;
-  return Opts;
-}
-
 } // namespace
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
@@ -145,11 +130,7 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
   SourceFiles Files;
   unsigned Id = Files.addBuffer(
       "fuzz.qasm", llvm::StringRef(reinterpret_cast<const char *>(Data), Size));
-  qasm::FrontendOptions Front;
-  Front.Limits.MaxQubits = 256;
-  Front.Limits.MaxClbits = 256;
-  Front.Limits.MaxOps = 20'000;
-  Front.Limits.MaxNesting = 64;
+  qasm::FrontendOptions Front = fuzz::smallFrontendOptions(256, 20'000);
   DiagnosticSink Warnings;
   llvm::Expected<ir::Circuit> C =
       qasm::buildCircuit(Files, Id, Front, Warnings);
@@ -157,7 +138,7 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
     llvm::consumeError(C.takeError());
     return 0;
   }
-  semantics::EngineOptions Opts = smallEngineOptions(Choice);
+  semantics::EngineOptions Opts = fuzz::smallEngineOptions(Choice);
   llvm::Expected<semantics::Ledger> L = semantics::runEngine(*C, Opts);
   if (!L) {
     // An explicit choice that cannot run is an error with a message.

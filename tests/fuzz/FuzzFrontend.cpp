@@ -6,6 +6,7 @@
 // file under tests/fuzz/regressions/frontend/ (README.md).
 //
 //===----------------------------------------------------------------------===//
+#include "FuzzLimits.h"
 #include "revbound/qasm/Frontend.h"
 #include "revbound/report/Report.h"
 
@@ -18,13 +19,7 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
   SourceFiles Files;
   unsigned Id = Files.addBuffer(
       "fuzz.qasm", llvm::StringRef(reinterpret_cast<const char *>(Data), Size));
-  qasm::FrontendOptions Front;
-  // Small limits keep each input's memory and time bounded, as a CI job's
-  // budget would.
-  Front.Limits.MaxQubits = 1024;
-  Front.Limits.MaxClbits = 1024;
-  Front.Limits.MaxOps = 100000;
-  Front.Limits.MaxNesting = 64;
+  qasm::FrontendOptions Front = fuzz::smallFrontendOptions(1024, 100'000);
   DiagnosticSink Warnings;
   llvm::Expected<ir::Circuit> C = qasm::buildCircuit(Files, Id, Front, Warnings);
   if (!C) {
@@ -33,16 +28,8 @@ extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
   }
   report::AnalysisOptions Opts;
   Opts.MaxDagNodes = 20000;
-  // analyzeCircuit runs the auto engine too. Its default bounds allow
-  // seconds of density simulation in a release build, which is tens of
-  // seconds under the sanitizers (regressions/frontend/density_branches.qasm);
-  // FuzzEngines.cpp fuzzes the engines with limits like these.
-  Opts.Engine.MaxDensityQubits = 8;
-  Opts.Engine.MaxAutoDensityWork = uint64_t(1) << 24;
-  Opts.Engine.MaxAutoClassicalOps = 20'000;
-  Opts.Engine.MaxBddNodes = uint64_t(1) << 16;
-  Opts.Engine.MaxExpandedOps = 100'000;
-  Opts.Engine.Samples = 64;
+  // analyzeCircuit runs the auto engine too, under the small limits.
+  Opts.Engine = fuzz::smallEngineOptions();
   llvm::Expected<report::CircuitReport> R =
       report::analyzeCircuit(*C, Files, "fuzz.qasm", Opts);
   if (!R)

@@ -10,6 +10,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "../qasm/PlainCallCheck.h"
+#include "FuzzLimits.h"
 
 #include <cstddef>
 #include <cstdint>
@@ -18,11 +19,7 @@
 
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t *Data, size_t Size) {
   using namespace revbound;
-  qasm::FrontendOptions Opts;
-  Opts.Limits.MaxQubits = 1024;
-  Opts.Limits.MaxClbits = 1024;
-  Opts.Limits.MaxOps = 100000;
-  Opts.Limits.MaxNesting = 64;
+  qasm::FrontendOptions Opts = fuzz::smallFrontendOptions(1024, 100'000);
   std::string Difference = test::plainCallDifference(
       llvm::StringRef(reinterpret_cast<const char *>(Data), Size), Opts);
   if (!Difference.empty()) {

@@ -267,7 +267,8 @@ llvm::Error Parser::parseFile(unsigned BufferId, bool IsMain, bool IsLibrary,
     Err = parseStatement(Depth);
   }
   if (IsMain)
-    Second.reset(); // not reached: an error came first
+    Second.reset(); // never joined: an error came first, or only blanks
+                    // followed its start
   L = SavedL;
   Cur = SavedCur;
   PrevEnd = SavedPrevEnd;

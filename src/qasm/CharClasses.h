@@ -47,6 +47,14 @@ inline bool isIdentBody(char C) {
 }
 inline bool isDigit(char C) { return hasClass(C, ClassDigit); }
 
+/// One past the name that starts at `Start` (an isIdentStart byte).
+inline const char *identifierEnd(const char *Start) {
+  const char *P = Start + 1;
+  while (isIdentBody(*P))
+    ++P;
+  return P;
+}
+
 /// The extent of a number by the lexer's grammar:
 ///   real ::= ([0-9]+ '.' [0-9]* | [0-9]* '.' [0-9]+) ([eE][-+]?[0-9]+)?
 ///          | [0-9]+ [eE][-+]?[0-9]+

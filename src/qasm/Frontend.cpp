@@ -187,6 +187,14 @@ public:
   /// and `To` holds fewer than `MaxOps` ops; otherwise changes nothing.
   bool append(const PlainCall &Call, uint64_t MaxOps, OpPools To);
 
+  /// The names' entries, through the caches that append uses too.
+  const llvm::StringMapEntry<ir::GateId> *findGate(llvm::StringRef Name) {
+    return GateCache.find(Name);
+  }
+  const llvm::StringMapEntry<uint32_t> *findRegister(llvm::StringRef Name) {
+    return RegisterCache.find(Name);
+  }
+
 private:
   const std::vector<ir::GateDef> &Gates;
   const std::vector<ir::Register> &QRegs;
@@ -236,8 +244,12 @@ private:
 
 class Elaborator : public StatementSink {
 public:
-  Elaborator(const FrontendLimits &Limits, DiagnosticSink &Warnings)
-      : Limits(Limits), Warnings(Warnings) {}
+  /// `ReuseBuiltinLibrary`: FrontendOptions::ReuseBuiltinLibrary; off for
+  /// the one Elaborator that reads the library for the copy.
+  Elaborator(const FrontendLimits &Limits, DiagnosticSink &Warnings,
+             bool ReuseBuiltinLibrary)
+      : Limits(Limits), Warnings(Warnings),
+        ReuseBuiltinLibrary(ReuseBuiltinLibrary) {}
 
   llvm::Error onStatement(const Statement &S) override;
   bool tryPlainCall(const PlainCall &Call) override {
@@ -245,8 +257,6 @@ public:
   }
   std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
   bool defineBuiltinLibrary() override;
-  /// Off for the one Elaborator that reads the library for the memo.
-  bool UseLibraryMemo = true;
   bool joinPlainCalls(PlainCallSink &Fork) override;
   /// Sizes the op and wire pools for the main file's text.
   void reserveFor(llvm::StringRef MainText);
@@ -286,10 +296,9 @@ private:
   const FrontendLimits &Limits;
   DiagnosticSink &Warnings;
   ir::Circuit C;
+  const bool ReuseBuiltinLibrary;
   bool SawStandardLibrary = false;
   llvm::StringMap<uint32_t> RegisterByName; // index * 2 + (1 for quantum)
-  NameCache<uint32_t> RegisterCache{RegisterByName};
-  NameCache<ir::GateId> GateCache{C.GateByName};
   PlainCallAppender Plain{C.GateByName, C.Gates, RegisterByName, C.QRegs};
   llvm::SmallVector<WireRef, 4> Refs;     // reused per statement
   llvm::SmallVector<uint32_t, 8> Qubits;  // reused per statement
@@ -297,7 +306,7 @@ private:
 
 const ir::Register *Elaborator::findRegister(llvm::StringRef Name,
                                              bool &IsQuantum) {
-  const auto *Entry = RegisterCache.find(Name);
+  const auto *Entry = Plain.findRegister(Name);
   if (!Entry)
     return nullptr;
   // Encoded as index * 2 + (1 for quantum).
@@ -538,7 +547,7 @@ llvm::Error Elaborator::compileBody(const GateDecl &D, ir::GateDef &G) {
 }
 
 llvm::Expected<ir::GateId> Elaborator::lookupGate(const Ident &Name) {
-  if (const auto *Entry = GateCache.find(Name.Name))
+  if (const auto *Entry = Plain.findGate(Name.Name))
     return Entry->getValue();
   return errorUnknownGate(Name);
 }
@@ -915,8 +924,7 @@ static const std::vector<ir::GateDef> &builtinLibraryGates() {
                                                     "include \"qelib1.inc\";\n");
     FrontendLimits Limits;
     DiagnosticSink Warnings;
-    Elaborator E(Limits, Warnings);
-    E.UseLibraryMemo = false;
+    Elaborator E(Limits, Warnings, /*ReuseBuiltinLibrary=*/false);
     llvm::Error Err = parseProgram(Files, Id, ParserOptions(), E, Warnings);
     // The built-in text is fixed and tested; an error here is a bug in it.
     if (Err)
@@ -932,7 +940,7 @@ static const std::vector<ir::GateDef> &builtinLibraryGates() {
 // gate of its own has them, and no limit a user may lower applies to the
 // built-in library but the qubits of a gate; anything else reads the text.
 bool Elaborator::defineBuiltinLibrary() {
-  if (!UseLibraryMemo || C.Gates.size() != 2)
+  if (!ReuseBuiltinLibrary || C.Gates.size() != 2)
     return false;
   const std::vector<ir::GateDef> &Library = builtinLibraryGates();
   for (const ir::GateDef &G : Library)
@@ -949,8 +957,7 @@ bool Elaborator::defineBuiltinLibrary() {
 llvm::Expected<ir::Circuit> buildCircuit(SourceFiles &Files, unsigned BufferId,
                                          const FrontendOptions &Opts,
                                          DiagnosticSink &Warnings) {
-  Elaborator E(Opts.Limits, Warnings);
-  E.UseLibraryMemo = Opts.ReuseBuiltinLibrary;
+  Elaborator E(Opts.Limits, Warnings, Opts.ReuseBuiltinLibrary);
   E.reserveFor(Files.mgr().getMemoryBuffer(BufferId)->getBuffer());
   std::vector<llvm::StringRef> Annotations;
   if (llvm::Error Err = parseProgram(Files, BufferId, Opts.Parser, E, Warnings,

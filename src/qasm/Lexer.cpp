@@ -173,9 +173,7 @@ LLVM_ATTRIBUTE_NOINLINE Token Lexer::lexOther() {
 // Names and numbers are most of the tokens, and a call costs about as much
 // as lexing a short one, so both are inlined into lex().
 LLVM_ATTRIBUTE_ALWAYS_INLINE Token Lexer::lexIdentifier(const char *Start) {
-  const char *P = Start + 1;
-  while (isIdentBody(*P))
-    ++P;
+  const char *P = identifierEnd(Start);
   Cur = P;
   llvm::StringRef Text(Start, size_t(P - Start));
   return Token{keywordKind(Text), Text};

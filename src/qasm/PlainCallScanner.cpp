@@ -83,8 +83,7 @@ const char *scanOperand(const char *P, PlainOperand &Out) {
   if (!isIdentStart(*P))
     return nullptr;
   const char *Start = P;
-  while (isIdentBody(*P))
-    ++P;
+  P = identifierEnd(Start);
   Out.Reg.Name = llvm::StringRef(Start, size_t(P - Start));
   Out.Reg.Loc = llvm::SMLoc::getFromPointer(Start);
   if (keywordKind(Out.Reg.Name) != Tok::Identifier)
@@ -159,8 +158,7 @@ const char *scanPlainRun(const char *P, PlainCallSink &Sink,
     if (!isIdentStart(*P))
       break;
     const char *Start = P;
-    while (isIdentBody(*P))
-      ++P;
+    P = identifierEnd(Start);
     Ident Gate{llvm::StringRef(Start, size_t(P - Start)),
                llvm::SMLoc::getFromPointer(Start)};
     if (keywordKind(Gate.Name) != Tok::Identifier)

@@ -67,8 +67,7 @@ llvm::Expected<unsigned> SourceFiles::readFile(llvm::StringRef Path,
                                     BufOrErr.getError().message()), Length);
   // The buffer keeps the file mapped; its identifier is the path as given,
   // which is what diagnostics show.
-  unsigned Id = SM.AddNewSourceBuffer(std::move(*BufOrErr), llvm::SMLoc());
-  BufferPaths.resize(Id);
+  unsigned Id = adopt(std::move(*BufOrErr));
   BufferPaths[Id - 1] = canonical(Path);
   return Id;
 }
@@ -88,9 +87,7 @@ llvm::Expected<unsigned> SourceFiles::loadMain(llvm::StringRef Path) {
     }
     if (std::ferror(stdin))
       return errorAt(llvm::SMLoc(), "cannot read standard input");
-    unsigned Id = SM.AddNewSourceBuffer(
-        llvm::MemoryBuffer::getMemBufferCopy(Text, "<stdin>"), llvm::SMLoc());
-    BufferPaths.resize(Id);
+    unsigned Id = adopt(llvm::MemoryBuffer::getMemBufferCopy(Text, "<stdin>"));
     Roots.push_back(canonical("."));
     return Id;
   }
@@ -103,21 +100,20 @@ llvm::Expected<unsigned> SourceFiles::loadMain(llvm::StringRef Path) {
   return Id;
 }
 
-unsigned SourceFiles::addBuffer(llvm::StringRef Name, llvm::StringRef Contents) {
-  unsigned Id = SM.AddNewSourceBuffer(
-      llvm::MemoryBuffer::getMemBufferCopy(Contents, Name), llvm::SMLoc());
+unsigned SourceFiles::adopt(std::unique_ptr<llvm::MemoryBuffer> Buffer) {
+  unsigned Id = SM.AddNewSourceBuffer(std::move(Buffer), llvm::SMLoc());
   BufferPaths.resize(Id);
   return Id;
 }
 
+unsigned SourceFiles::addBuffer(llvm::StringRef Name, llvm::StringRef Contents) {
+  return adopt(llvm::MemoryBuffer::getMemBufferCopy(Contents, Name));
+}
+
 unsigned SourceFiles::addStaticBuffer(llvm::StringRef Name,
                                       llvm::StringRef Contents) {
-  unsigned Id = SM.AddNewSourceBuffer(
-      llvm::MemoryBuffer::getMemBuffer(Contents, Name,
-                                       /*RequiresNullTerminator=*/true),
-      llvm::SMLoc());
-  BufferPaths.resize(Id);
-  return Id;
+  return adopt(llvm::MemoryBuffer::getMemBuffer(
+      Contents, Name, /*RequiresNullTerminator=*/true));
 }
 
 llvm::StringRef SourceFiles::canonicalPath(unsigned BufferId) const {

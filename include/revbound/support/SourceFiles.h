@@ -74,6 +74,8 @@ public:
   const llvm::SourceMgr &mgr() const { return SM; }
 
 private:
+  /// Hands `Buffer` to the source manager; its path starts empty.
+  unsigned adopt(std::unique_ptr<llvm::MemoryBuffer> Buffer);
   llvm::Expected<unsigned> readFile(llvm::StringRef Path, llvm::StringRef Shown,
                                     llvm::SMLoc Loc, unsigned Length);
   bool insideRoots(llvm::StringRef RealPath) const;

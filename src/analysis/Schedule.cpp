@@ -20,7 +20,8 @@ public:
       : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
         LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
-        Pred(std::make_unique_for_overwrite<PathStep[]>(C.Wires.size())) {
+        Pred(LargeAllocator<PathStep>().allocate(C.Wires.size()),
+             FreePathSteps{C.Wires.size()}) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
     for (auto &F : Free)
@@ -66,7 +67,13 @@ private:
     uint32_t Op;   // the op before it on the path, or NoOp
     uint32_t Wire; // the wire the path came in on
   };
-  std::unique_ptr<PathStep[]> Pred;
+  struct FreePathSteps {
+    size_t Count;
+    void operator()(PathStep *P) const {
+      LargeAllocator<PathStep>().deallocate(P, Count);
+    }
+  };
+  std::unique_ptr<PathStep[], FreePathSteps> Pred;
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
 };
 

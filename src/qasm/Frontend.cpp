@@ -167,9 +167,9 @@ struct WireRef {
 
 /// Where a circuit's top-level ops go.
 struct OpPools {
-  std::vector<ir::Op> &Ops;
-  std::vector<uint32_t> &Wires;
-  std::vector<double> &Params;
+  LargeVector<ir::Op> &Ops;
+  LargeVector<uint32_t> &Wires;
+  LargeVector<double> &Params;
 };
 
 /// StatementSink::tryPlainCall's rules, against names it only reads: those
@@ -226,9 +226,9 @@ public:
            NumRegisters == C.QRegs.size() + C.CRegs.size();
   }
 
-  std::vector<ir::Op> Ops;
-  std::vector<uint32_t> Wires;
-  std::vector<double> Params;
+  LargeVector<ir::Op> Ops;
+  LargeVector<uint32_t> Wires;
+  LargeVector<double> Params;
 
 private:
   // Declarations only ever add a gate or a register, so equal counts mean

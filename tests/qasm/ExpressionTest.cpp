@@ -22,7 +22,7 @@ static std::vector<double> valuesOf(const std::string &Args) {
   EXPECT_EQ(E.Error, "");
   if (!E.Circuit)
     return {};
-  return E.Circuit->Params;
+  return {E.Circuit->Params.begin(), E.Circuit->Params.end()};
 }
 
 TEST(Expression, PowerBindsTighterThanUnaryMinus) {

@@ -65,6 +65,16 @@ TEST(SpeedLimit, AlphaFastPathAgreesWithSolverEverywhere) {
   for (double S : {0.02, 0.98, 0.0199999, 0.0200001, 0.9799999, 0.9800001,
                    1000.0 / 4096, 1000.5 / 4096, 4000.0 / 4096})
     Roots.push_back(S);
+  // The middle of every interval of the three tables (src/physics/
+  // MinimiserTables.h: s over [0.02, 0.98] in 4096 steps, s over [0, 0.02]
+  // and sqrt(1 - eps) over [0, 0.2] in 1024), so that each entry is used.
+  for (int I = 0; I < 4096; ++I)
+    Roots.push_back(0.02 + 0.96 * (I + 0.5) / 4096);
+  for (int I = 0; I < 1024; ++I) {
+    Roots.push_back(0.02 * (I + 0.5) / 1024);
+    double V = 0.2 * (I + 0.5) / 1024;
+    Roots.push_back(std::sqrt(1 - V * V));
+  }
   for (double S : Roots) {
     double Eps = S * S;
     double Fast = physics::mlFactor(Eps), Slow = ternaryAlpha(Eps);

@@ -4,6 +4,7 @@
 #include <boost/graph/compressed_sparse_row_graph.hpp>
 #include <boost/graph/dag_shortest_paths.hpp>
 
+#include <algorithm>
 #include <functional>
 #include <limits>
 
@@ -163,6 +164,14 @@ llvm::Expected<std::optional<LeafDag>>
 LeafDag::build(const ir::Circuit &C, SummaryCache &Cache, uint64_t MaxNodes) {
   LeafDag Dag;
   Builder B(C, Cache, MaxNodes, Dag.Nodes);
+  // A flat circuit has one vertex per op and an edge from the source and
+  // one per wire into each: growing the arrays by doubling would copy them
+  // about twice over. The bound keeps a huge file's reservation in check.
+  size_t Vertices = std::min<uint64_t>(C.Ops.size(), MaxNodes);
+  Dag.Nodes.reserve(Vertices);
+  size_t Edges = Vertices + std::min<uint64_t>(C.Wires.size(), 4 * Vertices);
+  B.Edges.reserve(Edges);
+  B.Weights.reserve(Edges);
   llvm::SmallVector<uint32_t, 8> CondBits;
   for (uint32_t Top = 0; Top < C.Ops.size(); ++Top) {
     const ir::Op &O = C.Ops[Top];

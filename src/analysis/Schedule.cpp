@@ -150,16 +150,23 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
 }
 
 // The common case, an unconditional leaf gate on qubits only: applyLeaf's
-// rule in one pass over the wires for all three metrics.
+// rule in one pass over the wires for all three metrics. It runs once per
+// op of a flat file, so it works on raw pointers: stores through the
+// vectors would make the compiler reload every vector's data pointer (and
+// C.NumQubits) after each one.
 llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
                                       bool IsT) {
-  llvm::ArrayRef<uint32_t> W = C.wires(O);
-  std::vector<uint64_t> &All = Ready[unsigned(DepthMetric::All)];
-  std::vector<uint64_t> &Two = Ready[unsigned(DepthMetric::TwoQubit)];
-  std::vector<uint64_t> &T = Ready[unsigned(DepthMetric::T)];
+  const uint32_t *W = C.Wires.data() + O.FirstWire;
+  const unsigned N = O.NumWires;
+  uint64_t *All = Ready[unsigned(DepthMetric::All)].data();
+  uint64_t *Two = Ready[unsigned(DepthMetric::TwoQubit)].data();
+  uint64_t *T = Ready[unsigned(DepthMetric::T)].data();
+  uint32_t *Last = LastOp.data();
+  uint64_t *First = FirstUse.data(), *LastEnd = LastUse.data();
   uint64_t StartAll = 0, StartTwo = 0, StartT = 0;
   uint32_t Critical = W[0];
-  for (uint32_t X : W) {
+  for (unsigned I = 0; I < N; ++I) {
+    uint32_t X = W[I];
     if (All[X] > StartAll) {
       StartAll = All[X];
       Critical = X;
@@ -169,18 +176,21 @@ llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
   }
   uint64_t EndAll, EndTwo, EndT;
   if (__builtin_add_overflow(StartAll, 1, &EndAll) ||
-      __builtin_add_overflow(StartTwo, uint64_t(W.size() >= 2), &EndTwo) ||
+      __builtin_add_overflow(StartTwo, uint64_t(N >= 2), &EndTwo) ||
       __builtin_add_overflow(StartT, uint64_t(IsT), &EndT))
     return depthOverflow(O);
-  uint32_t From = StartAll > 0 ? LastOp[Critical] : NoOp;
-  for (unsigned I = 0; I < W.size(); ++I) {
-    uint32_t X = W[I];
-    Pred[O.FirstWire + I] = {From, Critical};
-    markUse(X, StartAll, EndAll);
+  PathStep Step = {StartAll > 0 ? Last[Critical] : NoOp, Critical};
+  PathStep *Steps = Pred.get() + O.FirstWire;
+  for (unsigned I = 0; I < N; ++I) {
+    uint32_t X = W[I]; // a qubit: markUse's test is not needed
+    Steps[I] = Step;
+    if (First[X] == NoPath)
+      First[X] = StartAll;
+    LastEnd[X] = EndAll;
     All[X] = EndAll;
     Two[X] = EndTwo;
     T[X] = EndT;
-    LastOp[X] = Index;
+    Last[X] = Index;
   }
   return llvm::Error::success();
 }
@@ -265,8 +275,10 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
 }
 
 llvm::Error Scheduler::run() {
-  for (uint32_t Index = 0; Index < C.Ops.size(); ++Index) {
-    const ir::Op &O = C.Ops[Index];
+  const ir::Op *Ops = C.Ops.data();
+  const uint32_t NumOps = uint32_t(C.Ops.size());
+  for (uint32_t Index = 0; Index < NumOps; ++Index) {
+    const ir::Op &O = Ops[Index];
     if (O.NumWires == 0)
       continue;
     if (O.Kind == ir::OpKind::Gate && O.Cond == ir::NoCondition &&

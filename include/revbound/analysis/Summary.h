@@ -114,7 +114,7 @@ private:
 
   const ir::Circuit &C;
   const LeafPolicy &Policy;
-  std::vector<bool> LeafFlags;
+  std::vector<uint8_t> LeafFlags; // a byte each: read once per op
   enum class TKind : uint8_t { Never, Always, ByAngle, ByThreeAngles, ByUnitary };
   std::vector<TKind> TKinds;
   bool unitaryIsT(ir::GateId G, llvm::ArrayRef<double> Params);

@@ -10,6 +10,7 @@
 #include "revbound/qasm/Frontend.h"
 #include "revbound/qasm/Roles.h"
 
+#include "llvm/ADT/STLExtras.h"
 #include "llvm/ADT/SmallSet.h"
 #include "llvm/Support/Compiler.h"
 #include "llvm/Support/ErrorHandling.h"
@@ -214,6 +215,7 @@ public:
         NumRegisters(C.QRegs.size() + C.CRegs.size()) {
     Ops.reserve(OpsEstimate);
     Wires.reserve(2 * OpsEstimate);
+    Params.reserve(OpsEstimate);
   }
 
   bool tryPlainCall(const PlainCall &Call) override {
@@ -329,6 +331,8 @@ void Elaborator::reserveFor(llvm::StringRef MainText) {
   uint64_t Estimate = estimateOps(MainText, Limits.MaxOps);
   C.Ops.reserve(Estimate);
   C.Wires.reserve(2 * Estimate); // gates on one or two qubits are the norm
+  // At most a parameter per op is usual; pages never written cost nothing.
+  C.Params.reserve(Estimate);
 }
 
 llvm::Error Elaborator::onStatement(const Statement &S) {
@@ -706,12 +710,13 @@ bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
     return false;
   uint32_t WireBase = uint32_t(C.Wires.size());
   uint32_t ParamBase = uint32_t(C.Params.size());
-  C.Ops.reserve(C.Ops.size() + Fork.Ops.size());
-  for (ir::Op O : Fork.Ops) {
+  // One range insert: a push_back per op checked the capacity each time.
+  auto Rebased = llvm::map_range(Fork.Ops, [=](ir::Op O) {
     O.FirstWire += WireBase;
     O.FirstParam += ParamBase;
-    C.Ops.push_back(O);
-  }
+    return O;
+  });
+  C.Ops.insert(C.Ops.end(), Rebased.begin(), Rebased.end());
   C.Wires.insert(C.Wires.end(), Fork.Wires.begin(), Fork.Wires.end());
   C.Params.insert(C.Params.end(), Fork.Params.begin(), Fork.Params.end());
   return true;

@@ -19,6 +19,24 @@
 
 namespace revbound {
 
+#if defined(__has_feature)
+#if __has_feature(address_sanitizer)
+#define REVBOUND_ADDRESS_SANITIZER 1
+#endif
+#endif
+#if defined(__SANITIZE_ADDRESS__)
+#define REVBOUND_ADDRESS_SANITIZER 1
+#endif
+
+/// Whether large blocks are mapped on their own. Not under
+/// AddressSanitizer: it checks only the bounds of memory it allocates, so
+/// mapped pools would escape its checks.
+#if defined(REVBOUND_ADDRESS_SANITIZER)
+inline constexpr bool LargeBlocksMapped = false;
+#else
+inline constexpr bool LargeBlocksMapped = true;
+#endif
+
 /// Blocks of at least this many bytes are mapped on their own.
 inline constexpr size_t LargeBlockBytes = size_t(4) << 20;
 
@@ -30,7 +48,8 @@ void *allocateLargeBlock(size_t Bytes);
 void freeLargeBlock(void *Block, size_t Bytes) noexcept;
 
 /// std::allocator, but blocks of LargeBlockBytes or more come from
-/// allocateLargeBlock. Stateless: any two compare equal.
+/// allocateLargeBlock where LargeBlocksMapped. Stateless: any two compare
+/// equal.
 template <typename T> struct LargeAllocator {
   using value_type = T;
 
@@ -40,13 +59,13 @@ template <typename T> struct LargeAllocator {
   T *allocate(size_t N) {
     if (N > SIZE_MAX / sizeof(T))
       throw std::bad_alloc();
-    if (N * sizeof(T) >= LargeBlockBytes)
+    if (LargeBlocksMapped && N * sizeof(T) >= LargeBlockBytes)
       return static_cast<T *>(allocateLargeBlock(N * sizeof(T)));
     return std::allocator<T>().allocate(N);
   }
   void deallocate(T *P, size_t N) noexcept {
     // N is the count P was allocated with, so it tells which way it came.
-    if (N * sizeof(T) >= LargeBlockBytes)
+    if (LargeBlocksMapped && N * sizeof(T) >= LargeBlockBytes)
       freeLargeBlock(P, N * sizeof(T));
     else
       std::allocator<T>().deallocate(P, N);

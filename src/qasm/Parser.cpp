@@ -325,10 +325,18 @@ llvm::Error Parser::parseStatement(unsigned Depth) {
                 ? scanPlainCall({Cur.Text, Cur.loc()}, L->position(), Plain)
                 : nullptr;
         After && Sink.tryPlainCall(Plain)) {
-      L->resumeAt(After);
-      PrevEnd = After;
       if (InMain && !SecondTried)
         startSecondReader(After);
+      // Plain calls come in long runs: read the rest of this one straight
+      // from the bytes too, as the second reader does, and stop short of
+      // its start so that the join sees the statement there.
+      static const std::atomic<bool> NeverCancelled{false};
+      if (const char *RunEnd =
+              scanPlainRun(After, Sink, NeverCancelled,
+                           InMain && Second ? Second->Start : nullptr))
+        After = RunEnd;
+      L->resumeAt(After);
+      PrevEnd = After;
       Cur = L->lex();
       return llvm::Error::success();
     }

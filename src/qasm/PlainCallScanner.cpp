@@ -147,7 +147,7 @@ const char *scanPlainCall(const Ident &Gate, const char *After,
 }
 
 const char *scanPlainRun(const char *P, PlainCallSink &Sink,
-                         const std::atomic<bool> &Cancel) {
+                         const std::atomic<bool> &Cancel, const char *Limit) {
   PlainCall Call;
   const char *LastEnd = nullptr;
   for (unsigned N = 1;; ++N) {
@@ -155,7 +155,7 @@ const char *scanPlainRun(const char *P, PlainCallSink &Sink,
     // `//!` one must reach the lexer's list of annotations.
     while (isSpace(*P))
       ++P;
-    if (!isIdentStart(*P))
+    if (!isIdentStart(*P) || (Limit && P >= Limit))
       break;
     const char *Start = P;
     P = identifierEnd(Start);

@@ -27,10 +27,12 @@ const char *scanPlainCall(const Ident &Gate, const char *After,
 
 /// Reads plain calls from `P`, a point between two statements, and hands
 /// each to `Sink` until one is refused, anything else comes (a keyword, a
-/// comment, the end of the buffer), or `Cancel` is set. Returns the byte
-/// after the last call taken, or nullptr if none was.
+/// comment, the end of the buffer), a call would start at or past `Limit`
+/// (when not null), or `Cancel` is set. Returns the byte after the last
+/// call taken, or nullptr if none was.
 const char *scanPlainRun(const char *P, PlainCallSink &Sink,
-                         const std::atomic<bool> &Cancel);
+                         const std::atomic<bool> &Cancel,
+                         const char *Limit = nullptr);
 
 } // namespace revbound::qasm
 

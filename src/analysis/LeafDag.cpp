@@ -21,9 +21,8 @@ struct LeafDag::Graph {
   // Compressed rows: the edges are known before the graph is made, and two
   // arrays cost far less than a vector of out-edges per vertex (whose
   // allocations took most of the time of a 200,000-leaf graph).
-  using Edge = LeafEdge;
   using Type = boost::compressed_sparse_row_graph<boost::directedS,
-                                                  boost::no_property, Edge>;
+                                                  boost::no_property, LeafEdge>;
   template <typename EdgeIt, typename WeightIt>
   Graph(EdgeIt Begin, EdgeIt End, WeightIt Weights, size_t NumVertices)
       : G(boost::edges_are_unsorted_multi_pass, Begin, End, Weights,

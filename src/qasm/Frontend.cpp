@@ -173,6 +173,24 @@ struct OpPools {
   LargeVector<double> &Params;
 };
 
+// Few op statements are shorter than "h q[0];" and a newline, so this
+// bound spares the pools of a flat file their repeated doubling (copies,
+// and twice the memory for a moment); broadcasts and includes may still
+// grow them. Where it is loose it costs address space, not memory: pages
+// never written are never mapped. Counting the ';' instead would be
+// tighter but reads the whole file once more.
+static uint64_t estimateOps(llvm::StringRef Text, uint64_t MaxOps) {
+  return std::min<uint64_t>(Text.size() / 8, MaxOps);
+}
+
+/// Sizes `To` for `Ops` ops: gates on one or two qubits and at most one
+/// parameter each are the norm.
+static void reservePools(OpPools To, uint64_t Ops) {
+  To.Ops.reserve(Ops);
+  To.Wires.reserve(2 * Ops);
+  To.Params.reserve(Ops);
+}
+
 /// StatementSink::tryPlainCall's rules, against names it only reads: those
 /// of the Elaborator itself, or a fork's copies on the second thread.
 class PlainCallAppender {
@@ -213,9 +231,7 @@ public:
       : GateByName(C.GateByName), Gates(C.Gates),
         RegisterByName(RegisterByName), QRegs(C.QRegs), MaxOps(MaxOps),
         NumRegisters(C.QRegs.size() + C.CRegs.size()) {
-    Ops.reserve(OpsEstimate);
-    Wires.reserve(2 * OpsEstimate);
-    Params.reserve(OpsEstimate);
+    reservePools({Ops, Wires, Params}, OpsEstimate);
   }
 
   bool tryPlainCall(const PlainCall &Call) override {
@@ -317,22 +333,9 @@ const ir::Register *Elaborator::findRegister(llvm::StringRef Name,
   return IsQuantum ? &C.QRegs[Code >> 1] : &C.CRegs[Code >> 1];
 }
 
-// Few op statements are shorter than "h q[0];" and a newline, so this
-// bound spares the pools of a flat file their repeated doubling (copies,
-// and twice the memory for a moment); broadcasts and includes may still
-// grow them. Where it is loose it costs address space, not memory: pages
-// never written are never mapped. Counting the ';' instead would be
-// tighter but reads the whole file once more.
-static uint64_t estimateOps(llvm::StringRef Text, uint64_t MaxOps) {
-  return std::min<uint64_t>(Text.size() / 8, MaxOps);
-}
-
 void Elaborator::reserveFor(llvm::StringRef MainText) {
-  uint64_t Estimate = estimateOps(MainText, Limits.MaxOps);
-  C.Ops.reserve(Estimate);
-  C.Wires.reserve(2 * Estimate); // gates on one or two qubits are the norm
-  // At most a parameter per op is usual; pages never written cost nothing.
-  C.Params.reserve(Estimate);
+  reservePools({C.Ops, C.Wires, C.Params},
+               estimateOps(MainText, Limits.MaxOps));
 }
 
 llvm::Error Elaborator::onStatement(const Statement &S) {

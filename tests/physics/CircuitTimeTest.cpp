@@ -103,3 +103,22 @@ TEST(CircuitTime, NonFiniteAngleInsideANativeLeaf) {
   ASSERT_TRUE(R);
   EXPECT_EQ(R->Speed.Bounds.UnknownSteps, 1u);
 }
+
+// The gate angle of rz(l), rx(l) and ry(l) is arccos |cos(l/2)| (half
+// their trace, DESIGN.md's rule for two eigenvalues), the distance of l/2
+// to the nearest multiple of pi. Tiny angles must keep their digits:
+// arccos of a rounded cosine gave 0 for rz(2e-8).
+TEST(CircuitTime, OneAngleRotationsKeepTinyAnglesAndFoldLargeOnes) {
+  for (const char *Gate : {"rz", "rx", "ry"}) {
+    std::string Call = std::string(Gate) + "(2e-8) q[0];\n";
+    auto R = run("qreg q[1];\n" + Call);
+    ASSERT_TRUE(R) << Gate;
+    EXPECT_NEAR(R->Speed.Bounds.AngleSumRad, 1e-8, 1e-22) << Gate;
+  }
+  for (double L : {5.0, 13.0, -7.5, 100.25}) {
+    auto R = run("qreg q[1];\nrz(" + std::to_string(L) + ") q[0];\n");
+    ASSERT_TRUE(R) << L;
+    double Expected = std::acos(std::abs(std::cos(std::stod(std::to_string(L)) / 2)));
+    EXPECT_NEAR(R->Speed.Bounds.AngleSumRad, Expected, 1e-12) << L;
+  }
+}

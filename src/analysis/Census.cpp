@@ -33,48 +33,38 @@ static llvm::Expected<NamedCounts> byName(const ir::Circuit &C,
   return Merged;
 }
 
-llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
-  Census Out;
-  std::vector<uint64_t> Written(C.Gates.size(), 0), Leaves(C.Gates.size(), 0);
-  uint64_t LeafT = 0; // T applications among top-level leaves
-  for (const ir::Op &O : C.Ops) {
-    if (O.Cond != ir::NoCondition)
-      ++Out.Conditional;
-    switch (O.Kind) {
-    case ir::OpKind::Measure:
-      ++Out.Measure;
-      continue;
-    case ir::OpKind::Reset:
-      ++Out.Reset;
-      continue;
-    case ir::OpKind::Barrier:
-      ++Out.Barrier;
-      continue;
-    case ir::OpKind::Gate:
-      break;
-    }
-    ++Written[O.Gate];
-    if (Cache.isLeaf(O.Gate)) {
-      // Leaf applications are added per gate after the loop; only the
-      // T test depends on the op's own angles.
-      if (Cache.isT(O.Gate, C.params(O)))
-        ++LeafT;
-      continue;
-    }
-    llvm::Expected<const GateSummary *> S =
-        Cache.get(O.Gate, C.params(O), O.Loc);
-    if (!S)
-      return S.takeError();
-    bool Ok = addChecked(Out.Gates, (*S)->Gates) &&
-              addChecked(Out.TwoQubit, (*S)->MultiQubit) &&
-              addChecked(Out.TCount, (*S)->TCount);
-    for (const auto &[Leaf, N] : (*S)->LeafCounts)
-      Ok = Ok && addChecked(Leaves[Leaf], N);
-    if (!Ok)
-      return tooMany(O.Loc);
+llvm::Error CensusTally::addCall(const ir::Op &O, const GateSummary &S) {
+  Conditional += O.Cond != ir::NoCondition;
+  ++Written[O.Gate];
+  bool Ok = addChecked(Out.Gates, S.Gates) &&
+            addChecked(Out.TwoQubit, S.MultiQubit) &&
+            addChecked(Out.TCount, S.TCount);
+  for (const auto &[Leaf, N] : S.LeafCounts)
+    Ok = Ok && addChecked(Leaves[Leaf], N);
+  return Ok ? llvm::Error::success() : tooMany(O.Loc);
+}
+
+void CensusTally::addOther(const ir::Op &O) {
+  Conditional += O.Cond != ir::NoCondition;
+  switch (O.Kind) {
+  case ir::OpKind::Measure:
+    ++Out.Measure;
+    break;
+  case ir::OpKind::Reset:
+    ++Out.Reset;
+    break;
+  case ir::OpKind::Barrier:
+    ++Out.Barrier;
+    break;
+  case ir::OpKind::Gate:
+    break; // addLeaf's or addCall's
   }
-  // Per gate: its applications times its expansion (one multiply per gate,
-  // not one lookup per op). The location of an overflow is the gate's.
+}
+
+llvm::Expected<Census> CensusTally::finish(SummaryCache &Cache) {
+  Out.Conditional = Conditional;
+  // Per gate: its applications times its expansion. The location of an
+  // overflow is the gate's.
   bool Ok = addChecked(Out.TCount, LeafT);
   for (ir::GateId G = 0; G < Written.size() && Ok; ++G) {
     uint64_t N = Written[G];
@@ -103,7 +93,28 @@ llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
     return ByName.takeError();
   Out.AsWritten = std::move(*AsWritten);
   Out.ByName = std::move(*ByName);
-  return Out;
+  return std::move(Out);
+}
+
+llvm::Expected<Census> takeCensus(const ir::Circuit &C, SummaryCache &Cache) {
+  CensusTally Tally(C);
+  for (const ir::Op &O : C.Ops) {
+    if (O.Kind != ir::OpKind::Gate) {
+      Tally.addOther(O);
+      continue;
+    }
+    if (Cache.isLeaf(O.Gate)) {
+      Tally.addLeaf(O, Cache.isT(O.Gate, C.params(O)));
+      continue;
+    }
+    llvm::Expected<const GateSummary *> S =
+        Cache.get(O.Gate, C.params(O), O.Loc);
+    if (!S)
+      return S.takeError();
+    if (llvm::Error E = Tally.addCall(O, **S))
+      return E;
+  }
+  return Tally.finish(Cache);
 }
 
 } // namespace revbound::analysis

@@ -16,10 +16,11 @@ constexpr uint32_t NoOp = UINT32_MAX;
 
 class Scheduler {
 public:
-  Scheduler(const ir::Circuit &C, SummaryCache &Cache)
-      : C(C), Cache(Cache), NumWires(size_t(C.NumQubits) + C.NumClbits),
+  Scheduler(const ir::Circuit &C, SummaryCache &Cache, CensusTally *Tally)
+      : C(C), Cache(Cache), Tally(Tally), NumWires(size_t(C.NumQubits) + C.NumClbits),
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
         LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
+        LastSlot(NumWires, 0), LastFreeSlot(NumWires, 0),
         Pred(LargeAllocator<PathStep>().allocate(C.Wires.size()),
              FreePathSteps{C.Wires.size()}) {
     for (auto &R : Ready)
@@ -50,6 +51,7 @@ private:
 
   const ir::Circuit &C;
   SummaryCache &Cache;
+  CensusTally *Tally;
   size_t NumWires;
   // Per wire and metric: when a qubit is next usable, when a bit's value is
   // available (its last measurement's end). Reading bits (conditions) does
@@ -60,12 +62,19 @@ private:
   std::vector<uint64_t> FirstUse, LastUse; // per qubit, for the volume
   std::vector<uint32_t> LastOp;    // op that last advanced each wire (writer)
   std::vector<uint32_t> LastFree;  // op that last pushed a bit's Free time
+  // The wire slots (indices into C.Wires) through which a path continues
+  // into LastOp and LastFree: the op's own slot for the wire, or its first
+  // slot where the wire is only a condition it read.
+  std::vector<uint32_t> LastSlot, LastFreeSlot;
   // Per op wire slot, where a longest path into it comes from. Every op
   // with wires writes all its slots before finish() reads any, so the
   // array starts unfilled: for a flat file it is the largest one here.
+  // A step names the slot it comes from, so that finish() walks back one
+  // load per step: going through the op and its wires took three
+  // dependent cache misses per step on a large file.
   struct PathStep {
     uint32_t Op;   // the op before it on the path, or NoOp
-    uint32_t Wire; // the wire the path came in on
+    uint32_t Slot; // that op's slot the path came in through
   };
   struct FreePathSteps {
     size_t Count;
@@ -110,14 +119,14 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
     std::vector<uint64_t> &R = Ready[M], &F = Free[M];
     bool All = M == unsigned(DepthMetric::All);
     uint64_t Start = 0, End;
-    uint32_t CritWire = Wires[0], CritOp = NoOp;
+    uint32_t CritSlot = LastSlot[Wires[0]], CritOp = NoOp;
     for (unsigned I = 0; I < Wires.size(); ++I) {
       uint32_t W = Wires[I];
       bool Written = I < N && isBit(W);
       uint64_t T = Written ? F[W] : R[W];
       if (T > Start) {
         Start = T;
-        CritWire = W;
+        CritSlot = Written ? LastFreeSlot[W] : LastSlot[W];
         CritOp = Written ? LastFree[W] : LastOp[W];
       }
     }
@@ -125,7 +134,7 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
       return depthOverflow(O);
     if (All) {
       for (unsigned I = 0; I < N; ++I) {
-        Pred[O.FirstWire + I] = {CritOp, CritWire};
+        Pred[O.FirstWire + I] = {CritOp, CritSlot};
       }
       if (UsesQubits)
         for (unsigned I = 0; I < N; ++I)
@@ -138,13 +147,15 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
     for (unsigned I = N; I < Wires.size(); ++I)
       if (End >= F[Wires[I]]) {
         F[Wires[I]] = End;
-        if (All)
+        if (All) {
           LastFree[Wires[I]] = Index;
+          LastFreeSlot[Wires[I]] = O.FirstWire;
+        }
       }
   }
   for (unsigned I = 0; I < N; ++I) {
-    LastOp[Wires[I]] = Index;
-    LastFree[Wires[I]] = Index;
+    LastOp[Wires[I]] = LastFree[Wires[I]] = Index;
+    LastSlot[Wires[I]] = LastFreeSlot[Wires[I]] = O.FirstWire + I;
   }
   return llvm::Error::success();
 }
@@ -161,7 +172,7 @@ llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
   uint64_t *All = Ready[unsigned(DepthMetric::All)].data();
   uint64_t *Two = Ready[unsigned(DepthMetric::TwoQubit)].data();
   uint64_t *T = Ready[unsigned(DepthMetric::T)].data();
-  uint32_t *Last = LastOp.data();
+  uint32_t *Last = LastOp.data(), *Slot = LastSlot.data();
   uint64_t *First = FirstUse.data(), *LastEnd = LastUse.data();
   uint64_t StartAll = 0, StartTwo = 0, StartT = 0;
   uint32_t Critical = W[0];
@@ -179,11 +190,12 @@ llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
       __builtin_add_overflow(StartTwo, uint64_t(N >= 2), &EndTwo) ||
       __builtin_add_overflow(StartT, uint64_t(IsT), &EndT))
     return depthOverflow(O);
-  PathStep Step = {StartAll > 0 ? Last[Critical] : NoOp, Critical};
+  PathStep Step = {StartAll > 0 ? Last[Critical] : NoOp, Slot[Critical]};
   PathStep *Steps = Pred.get() + O.FirstWire;
   for (unsigned I = 0; I < N; ++I) {
     uint32_t X = W[I]; // a qubit: markUse's test is not needed
     Steps[I] = Step;
+    Slot[X] = O.FirstWire + I;
     if (First[X] == NoPath)
       First[X] = StartAll;
     LastEnd[X] = EndAll;
@@ -199,13 +211,13 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
                                  const GateSummary &S) {
   unsigned K = O.NumWires;
   llvm::SmallVector<uint64_t, 8> In(K), Out(K);
-  llvm::SmallVector<uint32_t, 8> InWire(K), InOp(K);
+  llvm::SmallVector<uint32_t, 8> InSlot(K), InOp(K);
   for (unsigned M = 0; M < NumDepthMetrics; ++M) {
     std::vector<uint64_t> &R = Ready[M];
     bool All = M == unsigned(DepthMetric::All);
     // The condition bits hold every input back until they are ready.
     uint64_t CondReady = 0;
-    uint32_t CondWire = 0;
+    uint32_t CondWire = 0; // read only where CondReady > 0
     for (unsigned I = K; I < Wires.size(); ++I)
       if (R[Wires[I]] > CondReady) {
         CondReady = R[Wires[I]];
@@ -213,11 +225,11 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
       }
     for (unsigned I = 0; I < K; ++I) {
       In[I] = R[Wires[I]];
-      InWire[I] = Wires[I];
+      InSlot[I] = LastSlot[Wires[I]];
       InOp[I] = LastOp[Wires[I]];
       if (CondReady > In[I]) {
         In[I] = CondReady;
-        InWire[I] = CondWire;
+        InSlot[I] = LastSlot[CondWire];
         InOp[I] = LastOp[CondWire];
       }
     }
@@ -256,7 +268,7 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
       Latest = std::max(Latest, Best);
       if (All) {
         Pred[O.FirstWire + J] = {In[From] > 0 ? InOp[From] : NoOp,
-                                 InWire[From]};
+                                 InSlot[From]};
       }
     }
     for (unsigned J = 0; J < K; ++J)
@@ -265,12 +277,16 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
     for (unsigned I = K; I < Wires.size(); ++I)
       if (Latest >= Free[M][Wires[I]]) {
         Free[M][Wires[I]] = Latest;
-        if (All)
+        if (All) {
           LastFree[Wires[I]] = Index;
+          LastFreeSlot[Wires[I]] = O.FirstWire;
+        }
       }
   }
-  for (unsigned J = 0; J < K; ++J)
+  for (unsigned J = 0; J < K; ++J) {
     LastOp[Wires[J]] = Index;
+    LastSlot[Wires[J]] = O.FirstWire + J;
+  }
   return llvm::Error::success();
 }
 
@@ -279,26 +295,46 @@ llvm::Error Scheduler::run() {
   const uint32_t NumOps = uint32_t(C.Ops.size());
   for (uint32_t Index = 0; Index < NumOps; ++Index) {
     const ir::Op &O = Ops[Index];
-    if (O.NumWires == 0)
-      continue;
-    if (O.Kind == ir::OpKind::Gate && O.Cond == ir::NoCondition &&
-        Cache.isLeaf(O.Gate)) {
-      if (llvm::Error E = applyPlainGate(Index, O, Cache.isT(O.Gate, C.params(O))))
+    bool IsGate = O.Kind == ir::OpKind::Gate;
+    if (IsGate && Cache.isLeaf(O.Gate)) {
+      bool IsT = Cache.isT(O.Gate, C.params(O));
+      if (Tally)
+        Tally->addLeaf(O, IsT);
+      if (O.NumWires == 0)
+        continue;
+      if (O.Cond == ir::NoCondition) {
+        if (llvm::Error E = applyPlainGate(Index, O, IsT))
+          return E;
+        continue;
+      }
+      collectWires(O);
+      if (llvm::Error E = applyLeaf(Index, O, IsT, /*UsesQubits=*/true))
         return E;
       continue;
     }
-    collectWires(O);
-    if (O.Kind != ir::OpKind::Gate || Cache.isLeaf(O.Gate)) {
-      bool IsT = O.Kind == ir::OpKind::Gate &&
-                 Cache.isT(O.Gate, C.params(O));
-      if (llvm::Error E = applyLeaf(Index, O, IsT, O.Kind != ir::OpKind::Barrier))
+    if (!IsGate) {
+      if (Tally)
+        Tally->addOther(O);
+      if (O.NumWires == 0)
+        continue;
+      collectWires(O);
+      if (llvm::Error E = applyLeaf(Index, O, /*IsT=*/false,
+                                    O.Kind != ir::OpKind::Barrier))
         return E;
       continue;
     }
+    if (O.NumWires == 0 && !Tally)
+      continue;
     llvm::Expected<const GateSummary *> S =
         Cache.get(O.Gate, C.params(O), O.Loc);
     if (!S)
       return S.takeError();
+    if (Tally)
+      if (llvm::Error E = Tally->addCall(O, **S))
+        return E;
+    if (O.NumWires == 0)
+      continue;
+    collectWires(O);
     if (llvm::Error E = applyCall(Index, O, **S))
       return E;
   }
@@ -324,23 +360,13 @@ llvm::Expected<Schedule> Scheduler::finish() {
       Wire = W;
   if (All.empty() || All[Wire] == 0)
     return Out;
-  uint32_t Op = LastOp[Wire];
-  while (Op != NoOp) {
-    const ir::Op &O = C.Ops[Op];
-    if (O.Kind != ir::OpKind::Barrier) // aligns, takes no layer
-      Out.CriticalOps.push_back(Op);
-    llvm::ArrayRef<uint32_t> W = C.wires(O);
-    unsigned Slot = 0;
-    for (unsigned I = 0; I < W.size(); ++I) {
-      uint32_t Global = O.Kind == ir::OpKind::Measure && I == 1
-                            ? uint32_t(C.NumQubits + W[I])
-                            : W[I];
-      if (Global == Wire)
-        Slot = I;
-    }
-    const PathStep &Step = Pred[O.FirstWire + Slot];
-    Wire = Step.Wire;
-    Op = Step.Op;
+  PathStep Step = {LastOp[Wire], LastSlot[Wire]};
+  while (Step.Op != NoOp) {
+    // The op's kind is read off the chain of loads, so the walk does not
+    // wait for it.
+    if (C.Ops[Step.Op].Kind != ir::OpKind::Barrier) // aligns, takes no layer
+      Out.CriticalOps.push_back(Step.Op);
+    Step = Pred[Step.Slot];
   }
   std::reverse(Out.CriticalOps.begin(), Out.CriticalOps.end());
   return Out;
@@ -349,8 +375,9 @@ llvm::Expected<Schedule> Scheduler::finish() {
 } // namespace
 
 llvm::Expected<Schedule> scheduleCircuit(const ir::Circuit &C,
-                                         SummaryCache &Cache) {
-  Scheduler S(C, Cache);
+                                         SummaryCache &Cache,
+                                         CensusTally *Tally) {
+  Scheduler S(C, Cache, Tally);
   if (llvm::Error E = S.run())
     return std::move(E);
   return S.finish();

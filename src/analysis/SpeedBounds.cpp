@@ -111,6 +111,13 @@ double walk(const ir::Circuit &C, SummaryCache &Cache,
             SpeedBounds *Out) {
   std::vector<double> Ready(C.NumQubits, 0.0);
   llvm::SmallVector<double, 8> In;
+  // The walk runs beside the schedule on large files: a copy of the leaf
+  // flags of its own keeps its per-op reads off the other thread's cache
+  // lines (the cache sits in that thread's frame, beside what it writes on
+  // every op; sharing those lines made both walks half again as slow).
+  std::vector<uint8_t> IsLeaf(C.Gates.size());
+  for (ir::GateId G = 0; G < IsLeaf.size(); ++G)
+    IsLeaf[G] = Cache.isLeaf(G);
   for (const ir::Op &O : C.Ops) {
     if (O.Kind != ir::OpKind::Gate)
       continue;
@@ -120,7 +127,7 @@ double walk(const ir::Circuit &C, SummaryCache &Cache,
       continue;
     }
     llvm::ArrayRef<uint32_t> W = C.wires(O);
-    if (Cache.isLeaf(O.Gate)) {
+    if (IsLeaf[O.Gate]) {
       const physics::LeafCost &Cost = Costs.cost(O.Gate, C.params(O));
       double Start = 0;
       for (uint32_t Q : W)

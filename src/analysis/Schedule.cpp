@@ -83,6 +83,7 @@ private:
     }
   };
   std::unique_ptr<PathStep[], FreePathSteps> Pred;
+  bool SawBarrier = false; // else finish() need not read the ops' kinds
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
 };
 
@@ -313,6 +314,7 @@ llvm::Error Scheduler::run() {
       continue;
     }
     if (!IsGate) {
+      SawBarrier |= O.Kind == ir::OpKind::Barrier;
       if (Tally)
         Tally->addOther(O);
       if (O.NumWires == 0)
@@ -362,9 +364,9 @@ llvm::Expected<Schedule> Scheduler::finish() {
     return Out;
   PathStep Step = {LastOp[Wire], LastSlot[Wire]};
   while (Step.Op != NoOp) {
-    // The op's kind is read off the chain of loads, so the walk does not
-    // wait for it.
-    if (C.Ops[Step.Op].Kind != ir::OpKind::Barrier) // aligns, takes no layer
+    // A barrier aligns and takes no layer. Reading the op's kind is a cache
+    // miss per step on a large file, so only where there are barriers.
+    if (!SawBarrier || C.Ops[Step.Op].Kind != ir::OpKind::Barrier)
       Out.CriticalOps.push_back(Step.Op);
     Step = Pred[Step.Slot];
   }

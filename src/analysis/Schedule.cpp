@@ -21,8 +21,7 @@ public:
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
         LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
         LastSlot(NumWires, 0), LastFreeSlot(NumWires, 0),
-        Pred(LargeAllocator<PathStep>().allocate(C.Wires.size()),
-             FreePathSteps{C.Wires.size()}) {
+        Pred(std::make_unique_for_overwrite<PathStep[]>(C.Wires.size())) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
     for (auto &F : Free)
@@ -76,13 +75,7 @@ private:
     uint32_t Op;   // the op before it on the path, or NoOp
     uint32_t Slot; // that op's slot the path came in through
   };
-  struct FreePathSteps {
-    size_t Count;
-    void operator()(PathStep *P) const {
-      LargeAllocator<PathStep>().deallocate(P, Count);
-    }
-  };
-  std::unique_ptr<PathStep[], FreePathSteps> Pred;
+  std::unique_ptr<PathStep[]> Pred;
   bool SawBarrier = false; // else finish() need not read the ops' kinds
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
 };

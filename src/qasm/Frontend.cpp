@@ -168,9 +168,9 @@ struct WireRef {
 
 /// Where a circuit's top-level ops go.
 struct OpPools {
-  LargeVector<ir::Op> &Ops;
-  LargeVector<uint32_t> &Wires;
-  LargeVector<double> &Params;
+  std::vector<ir::Op> &Ops;
+  std::vector<uint32_t> &Wires;
+  std::vector<double> &Params;
 };
 
 // Few op statements are shorter than "h q[0];" and a newline, so this
@@ -244,9 +244,9 @@ public:
            NumRegisters == C.QRegs.size() + C.CRegs.size();
   }
 
-  LargeVector<ir::Op> Ops;
-  LargeVector<uint32_t> Wires;
-  LargeVector<double> Params;
+  std::vector<ir::Op> Ops;
+  std::vector<uint32_t> Wires;
+  std::vector<double> Params;
 
 private:
   // Declarations only ever add a gate or a register, so equal counts mean

@@ -14,7 +14,6 @@
 #define REVBOUND_IR_CIRCUIT_H
 
 #include "revbound/ir/ParamExpr.h"
-#include "revbound/support/LargeAllocator.h"
 
 #include "llvm/ADT/APInt.h"
 #include "llvm/ADT/ArrayRef.h"
@@ -136,10 +135,10 @@ public:
   uint32_t NumQubits = 0;
   uint32_t NumClbits = 0;
 
-  // The pools a large file fills, on huge pages when large.
-  LargeVector<Op> Ops;
-  LargeVector<uint32_t> Wires;
-  LargeVector<double> Params;
+  // The pools a large file fills.
+  std::vector<Op> Ops;
+  std::vector<uint32_t> Wires;
+  std::vector<double> Params;
   std::vector<Condition> Conditions;
 
   /// One role per qubit (empty means every qubit is an output), and where

@@ -17,10 +17,11 @@ constexpr uint32_t NoOp = UINT32_MAX;
 class Scheduler {
 public:
   Scheduler(const ir::Circuit &C, SummaryCache &Cache, CensusTally *Tally)
-      : C(C), Cache(Cache), Tally(Tally), NumWires(size_t(C.NumQubits) + C.NumClbits),
+      : C(C), Cache(Cache), Tally(Tally),
+        NumWires(size_t(C.NumQubits) + C.NumClbits),
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
-        LastOp(NumWires, NoOp), LastFree(NumWires, NoOp),
-        LastSlot(NumWires, 0), LastFreeSlot(NumWires, 0),
+        LastOp(NumWires, NoOp), LastFree(NumWires, NoOp), LastSlot(NumWires, 0),
+        LastFreeSlot(NumWires, 0),
         Pred(std::make_unique_for_overwrite<PathStep[]>(C.Wires.size())) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
@@ -313,8 +314,8 @@ llvm::Error Scheduler::run() {
       if (O.NumWires == 0)
         continue;
       collectWires(O);
-      if (llvm::Error E = applyLeaf(Index, O, /*IsT=*/false,
-                                    O.Kind != ir::OpKind::Barrier))
+      if (llvm::Error E =
+              applyLeaf(Index, O, /*IsT=*/false, O.Kind != ir::OpKind::Barrier))
         return E;
       continue;
     }
@@ -369,9 +370,8 @@ llvm::Expected<Schedule> Scheduler::finish() {
 
 } // namespace
 
-llvm::Expected<Schedule> scheduleCircuit(const ir::Circuit &C,
-                                         SummaryCache &Cache,
-                                         CensusTally *Tally) {
+llvm::Expected<Schedule>
+scheduleCircuit(const ir::Circuit &C, SummaryCache &Cache, CensusTally *Tally) {
   Scheduler S(C, Cache, Tally);
   if (llvm::Error E = S.run())
     return std::move(E);

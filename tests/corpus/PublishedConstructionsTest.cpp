@@ -75,7 +75,8 @@ Analysed analyse(const std::string &Text) {
     llvm::Expected<analysis::Schedule> S =
         analysis::scheduleCircuit(C, Cache, &Tally);
     llvm::Expected<analysis::Census> Cs =
-        S ? Tally.finish(Cache) : llvm::Expected<analysis::Census>(S.takeError());
+        S ? Tally.finish(Cache)
+          : llvm::Expected<analysis::Census>(S.takeError());
     if (!S || !Cs) {
       ResolvedLocation At;
       std::string Message = takeMessage(Cs.takeError(), *A.Source.Files, At);

@@ -374,7 +374,7 @@ llvm::Expected<Schedule>
 scheduleCircuit(const ir::Circuit &C, SummaryCache &Cache, CensusTally *Tally) {
   Scheduler S(C, Cache, Tally);
   if (llvm::Error E = S.run())
-    return std::move(E);
+    return E;
   return S.finish();
 }
 

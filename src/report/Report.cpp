@@ -274,19 +274,31 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
     }
     return llvm::Error::success();
   };
-  std::optional<std::future<llvm::Error>> SpeedAside;
+  // The engine reads only the circuit, so it follows the speed part on the
+  // second thread: of the two sides that one is the shorter on a flat file.
+  // The speed part's error still comes first.
+  std::optional<llvm::Expected<semantics::Ledger>> Ledger;
+  auto AsidePart = [&]() -> llvm::Error {
+    if (llvm::Error E = SpeedPart())
+      return E;
+    Ledger.emplace(semantics::runEngine(C, Opts.Engine));
+    return llvm::Error::success();
+  };
+  std::optional<std::future<llvm::Error>> Aside;
   if (C.Ops.size() >= Opts.MinOpsForSecondThread)
-    SpeedAside = std::async(std::launch::async, SpeedPart);
-  // Waits for the speed part however this function returns.
-  auto JoinSpeed = [&]() -> llvm::Error {
-    if (!SpeedAside)
+    Aside = std::async(std::launch::async, AsidePart);
+  // Waits for the second thread however this function returns.
+  auto JoinAside = [&]() -> llvm::Error {
+    if (!Aside)
       return llvm::Error::success();
-    llvm::Error E = SpeedAside->get();
-    SpeedAside.reset();
+    llvm::Error E = Aside->get();
+    Aside.reset();
     return E;
   };
   auto Fail = [&](llvm::Error E) -> llvm::Error {
-    llvm::consumeError(JoinSpeed());
+    llvm::consumeError(JoinAside());
+    if (Ledger && !*Ledger)
+      llvm::consumeError(Ledger->takeError());
     return E;
   };
   // The census rides on the schedule's walk over the ops.
@@ -313,15 +325,13 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   R.Volume = S->Volume;
   if (llvm::Error E = fillPath(C, Files, Cache, R.Ops, *S, Opts, R.Path))
     return Fail(std::move(E));
-  if (llvm::Error E = SpeedAside ? JoinSpeed() : SpeedPart())
-    return std::move(E);
-  llvm::Expected<semantics::Ledger> Ledger =
-      semantics::runEngine(C, Opts.Engine);
-  if (!Ledger)
-    return Ledger.takeError();
-  if (llvm::Error E = fillErasures(C, Files, Cache, *Ledger, R.DepthAll,
+  if (llvm::Error E = Aside ? JoinAside() : AsidePart())
+    return E;
+  if (!*Ledger)
+    return Ledger->takeError();
+  if (llvm::Error E = fillErasures(C, Files, Cache, **Ledger, R.DepthAll,
                                    Opts.TemperatureK, R.Erasures))
-    return std::move(E);
+    return E;
   if (!R.Speed.Bounds.UnknownGates.empty()) {
     std::string Names;
     for (const std::string &N : R.Speed.Bounds.UnknownGates)

@@ -194,7 +194,7 @@ llvm::Expected<report::AnalysisOptions> analysisOptions(const InputOptions &O) {
   }
   for (const std::string &Spec : O.GateAngles)
     if (llvm::Error E = addGateAngle(Spec, A.GivenAngles))
-      return std::move(E);
+      return E;
   if (!O.DurationsFile.empty()) {
     config::ConfigError Error;
     A.Durations = config::readDurations(O.DurationsFile, Error);

@@ -131,9 +131,10 @@ struct AnalysisOptions {
   analysis::LeafPolicy Policy;
   uint64_t MaxDagNodes = 200'000; // leaf graph size for the exact path listing
   unsigned MaxPathSteps = 100;    // critical-path steps listed
-  /// From this many top-level ops on, the speed bounds run on a thread of
-  /// their own beside the census and the schedule (same results; a thread
-  /// costs more than it saves on small circuits).
+  /// From this many top-level ops on, the speed bounds and then the
+  /// erasure engine run on a thread of their own beside the census and the
+  /// schedule (same results; a thread costs more than it saves on small
+  /// circuits).
   uint64_t MinOpsForSecondThread = 100'000;
   analysis::EnergyOptions Energy;
   llvm::StringMap<double> GivenAngles; // --gate-angle NAME=RADIANS

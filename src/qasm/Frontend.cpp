@@ -215,10 +215,28 @@ public:
   }
 
 private:
+  /// Most files name one quantum register in every operand, so the last
+  /// operand's name is compared first: a byte or two instead of the
+  /// cache's hashing. A register's entry never changes once declared.
+  const llvm::StringMapEntry<uint32_t> *findOperandRegister(llvm::StringRef Name) {
+    if (LastRegister && Name.size() == LastRegisterName.size() &&
+        Name[0] == LastRegisterName[0] &&
+        Name.drop_front() == LastRegisterName.drop_front())
+      return LastRegister;
+    const auto *Found = RegisterCache.find(Name);
+    if (Found) {
+      LastRegister = Found;
+      LastRegisterName = Name;
+    }
+    return Found;
+  }
+
   const std::vector<ir::GateDef> &Gates;
   const std::vector<ir::Register> &QRegs;
   NameCache<ir::GateId> GateCache;
   NameCache<uint32_t> RegisterCache; // index * 2 + (1 for quantum)
+  const llvm::StringMapEntry<uint32_t> *LastRegister = nullptr;
+  llvm::StringRef LastRegisterName; // in a source buffer, alive while parsing
 };
 
 /// A fork for StatementSink::forkPlainCalls: copies of the names, and pools
@@ -671,7 +689,7 @@ bool PlainCallAppender::append(const PlainCall &Call, uint64_t MaxOps,
     return false;
   for (unsigned A = 0; A < Arity; ++A) {
     const PlainOperand &Arg = Call.Args[A];
-    const auto *Reg = RegisterCache.find(Arg.Reg.Name);
+    const auto *Reg = findOperandRegister(Arg.Reg.Name);
     uint32_t Code = Reg ? Reg->getValue() : 0;
     if (!(Code & 1)) // no such register, or a classical one
       return false;

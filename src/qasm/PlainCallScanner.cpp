@@ -16,6 +16,10 @@ namespace {
 // loop stops at it; one byte past a non-NUL byte is still in the buffer.
 
 const char *skipBlanks(const char *P) {
+  // Most tokens follow one another with no blank: one comparison says so
+  // (every byte above ' ' is not a blank).
+  if (static_cast<unsigned char>(*P) > ' ')
+    return P;
   while (*P == ' ' || *P == '\t')
     ++P;
   return P;
@@ -94,16 +98,18 @@ const char *scanOperand(const char *P, PlainOperand &Out) {
   P = skipBlanks(P + 1);
   const char *Digits = P;
   uint64_t Index = 0;
-  while (isDigit(*P)) {
-    if (__builtin_mul_overflow(Index, 10, &Index) ||
-        __builtin_add_overflow(Index, uint64_t(*P - '0'), &Index))
-      return nullptr;
-    ++P;
-  }
-  if (P == Digits || (P - Digits > 1 && *Digits == '0') || isIdentStart(*P) ||
-      *P == '.' || *P == 'e' || *P == 'E')
+  while (isDigit(*P))
+    Index = Index * 10 + unsigned(*P++ - '0');
+  // Up to 19 digits cannot overflow 64 bits; no register is that large,
+  // so longer indices are left to the parser's range diagnostic.
+  if (P == Digits || P - Digits > 19 || (P - Digits > 1 && *Digits == '0'))
     return nullptr;
   Out.Index = Index;
+  if (*P == ']')
+    return P + 1;
+  // A letter ('e' too) or a '.' would make this a different token.
+  if (isIdentStart(*P) || *P == '.')
+    return nullptr;
   P = skipBlanks(P);
   return *P == ']' ? P + 1 : nullptr;
 }

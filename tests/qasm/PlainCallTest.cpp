@@ -111,6 +111,11 @@ TEST(PlainCall, SameCircuitAndDiagnosticsBothWays) {
            "u3(pi/7*3/11, -pi*1e-3, 5/pi) r[0];\n",
            "h q[4];\n",           // index out of range
            "h c[0];\n",           // a classical register as a qubit
+           // Switching registers: r[2] is past r's size though within q's.
+           "cx q[0],r[1];\ncx r[0],q[1];\nh q[3];\nh r[2];\n",
+           "h q[0];\nh c[0];\n",  // the last register, then a classical one
+           "h q[0];\nh qq[0];\nh r[0];\nh rr[0];\n", // names sharing a byte
+           "qreg qa[1];\nqreg qb[3];\nh qb[2];\nh qa[2];\n", // and a length
            "h s[0];\n",           // an undeclared register
            "cx q[1],q[1];\n",     // a repeated qubit
            "nosuch q[0];\n",      // an unknown gate

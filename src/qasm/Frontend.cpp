@@ -217,8 +217,10 @@ public:
 private:
   /// Most files name one quantum register in every operand, so the last
   /// operand's name is compared first: a byte or two instead of the
-  /// cache's hashing. A register's entry never changes once declared.
-  const llvm::StringMapEntry<uint32_t> *findOperandRegister(llvm::StringRef Name) {
+  /// cache's hashing (the first byte apart, so that a one-byte name costs
+  /// no memcmp call). A register's entry never changes once declared.
+  const llvm::StringMapEntry<uint32_t> *
+  findOperandRegister(llvm::StringRef Name) {
     if (LastRegister && Name.size() == LastRegisterName.size() &&
         Name[0] == LastRegisterName[0] &&
         Name.drop_front() == LastRegisterName.drop_front())

@@ -277,11 +277,14 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   // The engine reads only the circuit, so it follows the speed part on the
   // second thread: of the two sides that one is the shorter on a flat file.
   // The speed part's error still comes first.
-  std::optional<llvm::Expected<semantics::Ledger>> Ledger;
+  std::optional<semantics::Ledger> Ledger;
   auto AsidePart = [&]() -> llvm::Error {
     if (llvm::Error E = SpeedPart())
       return E;
-    Ledger.emplace(semantics::runEngine(C, Opts.Engine));
+    llvm::Expected<semantics::Ledger> L = semantics::runEngine(C, Opts.Engine);
+    if (!L)
+      return L.takeError();
+    Ledger = std::move(*L);
     return llvm::Error::success();
   };
   std::optional<std::future<llvm::Error>> Aside;
@@ -297,8 +300,6 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
   };
   auto Fail = [&](llvm::Error E) -> llvm::Error {
     llvm::consumeError(JoinAside());
-    if (Ledger && !*Ledger)
-      llvm::consumeError(Ledger->takeError());
     return E;
   };
   // The census rides on the schedule's walk over the ops.
@@ -327,9 +328,7 @@ llvm::Expected<CircuitReport> analyzeCircuit(const ir::Circuit &C,
     return Fail(std::move(E));
   if (llvm::Error E = Aside ? JoinAside() : AsidePart())
     return E;
-  if (!*Ledger)
-    return Ledger->takeError();
-  if (llvm::Error E = fillErasures(C, Files, Cache, **Ledger, R.DepthAll,
+  if (llvm::Error E = fillErasures(C, Files, Cache, *Ledger, R.DepthAll,
                                    Opts.TemperatureK, R.Erasures))
     return E;
   if (!R.Speed.Bounds.UnknownGates.empty()) {

@@ -203,8 +203,10 @@ public:
         RegisterCache(RegisterByName) {}
 
   /// Adds `Call` to `To` if applyGate would take it without a diagnostic
-  /// and `To` holds fewer than `MaxOps` ops; otherwise changes nothing.
-  bool append(const PlainCall &Call, uint64_t MaxOps, OpPools To);
+  /// and `To` stays within `Limits`' ops and pool entries; otherwise
+  /// changes nothing.
+  bool append(const PlainCall &Call, const FrontendLimits &Limits,
+              OpPools To);
 
   /// The names' entries, through the caches that append uses too.
   const llvm::StringMapEntry<ir::GateId> *findGate(llvm::StringRef Name) {
@@ -247,15 +249,15 @@ class PlainCallFork : public PlainCallSink {
 public:
   PlainCallFork(const ir::Circuit &C,
                 const llvm::StringMap<uint32_t> &RegisterByName,
-                uint64_t MaxOps, uint64_t OpsEstimate)
+                const FrontendLimits &Limits, uint64_t OpsEstimate)
       : GateByName(C.GateByName), Gates(C.Gates),
-        RegisterByName(RegisterByName), QRegs(C.QRegs), MaxOps(MaxOps),
+        RegisterByName(RegisterByName), QRegs(C.QRegs), Limits(Limits),
         NumRegisters(C.QRegs.size() + C.CRegs.size()) {
     reservePools({Ops, Wires, Params}, OpsEstimate);
   }
 
   bool tryPlainCall(const PlainCall &Call) override {
-    return Appender.append(Call, MaxOps, {Ops, Wires, Params});
+    return Appender.append(Call, Limits, {Ops, Wires, Params});
   }
 
   /// True when `C` has declared nothing since the fork was made.
@@ -275,7 +277,7 @@ private:
   const std::vector<ir::GateDef> Gates;
   const llvm::StringMap<uint32_t> RegisterByName;
   const std::vector<ir::Register> QRegs;
-  const uint64_t MaxOps;
+  const FrontendLimits Limits;
   const size_t NumRegisters;
   PlainCallAppender Appender{GateByName, Gates, RegisterByName, QRegs};
 };
@@ -286,12 +288,12 @@ public:
   /// the one Elaborator that reads the library for the copy.
   Elaborator(const FrontendLimits &Limits, DiagnosticSink &Warnings,
              bool ReuseBuiltinLibrary)
-      : Limits(Limits), Warnings(Warnings),
+      : Limits(withinIndexRange(Limits)), Warnings(Warnings),
         ReuseBuiltinLibrary(ReuseBuiltinLibrary) {}
 
   llvm::Error onStatement(const Statement &S) override;
   bool tryPlainCall(const PlainCall &Call) override {
-    return Plain.append(Call, Limits.MaxOps, {C.Ops, C.Wires, C.Params});
+    return Plain.append(Call, Limits, {C.Ops, C.Wires, C.Params});
   }
   std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
   bool defineBuiltinLibrary() override;
@@ -330,8 +332,16 @@ private:
   LLVM_ATTRIBUTE_NOINLINE llvm::Error
   errorRepeatedQubit(const Operand &Arg, uint32_t Q, const ir::GateDef &Def);
   LLVM_ATTRIBUTE_NOINLINE llvm::Error errorTooManyOps(llvm::SMLoc Loc);
+  LLVM_ATTRIBUTE_NOINLINE llvm::Error errorPoolsFull(llvm::SMLoc Loc);
 
-  const FrontendLimits &Limits;
+  /// The IR's indices bound the ops and pools whatever the options say.
+  static FrontendLimits withinIndexRange(FrontendLimits L) {
+    L.MaxOps = std::min(L.MaxOps, ir::MaxPoolEntries);
+    L.MaxPoolEntries = std::min(L.MaxPoolEntries, ir::MaxPoolEntries);
+    return L;
+  }
+
+  const FrontendLimits Limits;
   DiagnosticSink &Warnings;
   ir::Circuit C;
   const bool ReuseBuiltinLibrary;
@@ -663,8 +673,19 @@ llvm::Error Elaborator::checkBroadcast(llvm::ArrayRef<WireRef> Refs,
 llvm::Error Elaborator::addOp(ir::Op O) {
   if (C.Ops.size() >= Limits.MaxOps)
     return errorTooManyOps(O.Loc);
+  // The op's wires and parameters are in the pools already.
+  if (C.Wires.size() > Limits.MaxPoolEntries ||
+      C.Params.size() > Limits.MaxPoolEntries)
+    return errorPoolsFull(O.Loc);
   C.Ops.push_back(O);
   return llvm::Error::success();
+}
+
+llvm::Error Elaborator::errorPoolsFull(llvm::SMLoc Loc) {
+  return errorAt(Loc, fmt::format("the top-level operations pass {} wires "
+                                  "or parameter values in all; revbound "
+                                  "indexes them in 32 bits",
+                                  Limits.MaxPoolEntries));
 }
 
 llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
@@ -675,7 +696,8 @@ llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
 
 // applyGate's rules for the plain form, checked before anything is added;
 // whatever would be a diagnostic is left to applyGate.
-bool PlainCallAppender::append(const PlainCall &Call, uint64_t MaxOps,
+bool PlainCallAppender::append(const PlainCall &Call,
+                               const FrontendLimits &Limits,
                                OpPools To) {
   const auto *Entry = GateCache.find(Call.Gate.Name);
   if (!Entry)
@@ -684,7 +706,9 @@ bool PlainCallAppender::append(const PlainCall &Call, uint64_t MaxOps,
   const ir::GateDef &Def = Gates[Id];
   unsigned Arity = unsigned(Call.Args.size());
   if (Call.Params.size() != Def.numParams() || Arity != Def.numQubits() ||
-      To.Ops.size() >= MaxOps)
+      To.Ops.size() >= Limits.MaxOps ||
+      To.Wires.size() + Arity > Limits.MaxPoolEntries ||
+      To.Params.size() + Call.Params.size() > Limits.MaxPoolEntries)
     return false;
   uint32_t Wires[8];
   if (Arity > std::size(Wires))
@@ -723,13 +747,15 @@ bool PlainCallAppender::append(const PlainCall &Call, uint64_t MaxOps,
 
 std::unique_ptr<PlainCallSink>
 Elaborator::forkPlainCalls(llvm::StringRef Text) {
-  return std::make_unique<PlainCallFork>(C, RegisterByName, Limits.MaxOps,
+  return std::make_unique<PlainCallFork>(C, RegisterByName, Limits,
                                          estimateOps(Text, Limits.MaxOps));
 }
 
 bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
   auto &Fork = static_cast<PlainCallFork &>(Sink); // made by forkPlainCalls
-  if (!Fork.sameNamesAs(C) || C.Ops.size() + Fork.Ops.size() > Limits.MaxOps)
+  if (!Fork.sameNamesAs(C) || C.Ops.size() + Fork.Ops.size() > Limits.MaxOps ||
+      C.Wires.size() + Fork.Wires.size() > Limits.MaxPoolEntries ||
+      C.Params.size() + Fork.Params.size() > Limits.MaxPoolEntries)
     return false;
   uint32_t WireBase = uint32_t(C.Wires.size());
   uint32_t ParamBase = uint32_t(C.Params.size());

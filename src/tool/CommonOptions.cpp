@@ -53,6 +53,7 @@ void addInputOptions(CLI::App &Cmd, InputOptions &O) {
       ->capture_default_str();
   Cmd.add_option("--max-ops", O.Limits.MaxOps,
                  "top-level operations after broadcasting")
+      ->check(CLI::Range(uint64_t(0), ir::MaxPoolEntries))
       ->capture_default_str();
   Cmd.add_option("--max-include-depth", O.MaxIncludeDepth,
                  "files open at once through nested includes")

@@ -114,6 +114,36 @@ TEST(Elaboration, OpLimit) {
             "^\n");
 }
 
+// The IR indexes wires and parameter values in 32 bits; FrontendLimits
+// lowers the bound so that a test reaches it.
+TEST(Elaboration, PoolEntryLimit) {
+  qasm::FrontendOptions Opts;
+  Opts.Limits.MaxPoolEntries = 5;
+  const char *Message = "error: the top-level operations pass 5 wires or "
+                        "parameter values in all; revbound indexes them in "
+                        "32 bits\n";
+  // Wires: the third cx brings them to six.
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[3];\nCX q[0],q[1];\n"
+                      "CX q[1],q[2];\nCX q[0],q[2];\n",
+                      Opts)
+                .Error,
+            std::string("test.qasm:5:1: ") + Message + "CX q[0],q[2];\n^\n");
+  // A barrier's wires, and a broadcast's.
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[6];\nbarrier q;\n", Opts).Error,
+            std::string("test.qasm:3:1: ") + Message + "barrier q;\n^\n");
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[6];\nU(0,0,0) q;\n", Opts).Error,
+            std::string("test.qasm:3:1: ") + Message + "U(0,0,0) q;\n^\n");
+  // Parameter values: U takes three, so the second U passes five.
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[1];\nU(0,0,0) q[0];\n"
+                      "U(0,0,0) q[0];\n",
+                      Opts)
+                .Error,
+            std::string("test.qasm:4:1: ") + Message + "U(0,0,0) q[0];\n^\n");
+  // At the bound exactly, nothing is wrong.
+  EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[5];\nbarrier q;\n", Opts).Error,
+            "");
+}
+
 // Checks that a library gate replaced after use takes effect from the
 // replacement on (the name caches must not keep the old definition).
 TEST(Elaboration, LibraryGateReplacedAfterUse) {

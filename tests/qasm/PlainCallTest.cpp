@@ -7,6 +7,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "PlainCallCheck.h"
+#include "TestSupport.h"
 
 #include "revbound/qasm/Parser.h"
 
@@ -178,6 +179,19 @@ TEST(PlainCall, LimitOnOpsIsTheSameDiagnostic) {
             "");
 }
 
+TEST(PlainCall, LimitOnPoolEntriesIsTheSameDiagnostic) {
+  for (uint64_t Max : {3u, 4u, 5u, 6u}) {
+    qasm::FrontendOptions Opts;
+    Opts.Limits.MaxPoolEntries = Max;
+    EXPECT_EQ(test::plainCallDifference(
+                  "OPENQASM 2.0;\ninclude \"qelib1.inc\";\nqreg q[3];\n"
+                  "cx q[0],q[1];\nrz(1) q[2];\nrz(2) q[0];\nccx q[0],q[1],q[2];\n",
+                  Opts),
+              "")
+        << Max;
+  }
+}
+
 // The second thread. The split falls at the first line past the middle of
 // what follows the first plain call; these bodies put declarations,
 // straddling statements, comments, errors and limits on either side of it.
@@ -307,6 +321,20 @@ TEST(PlainCallSecondThread, LimitOnOpsAcrossTheSplit) {
     qasm::FrontendOptions Opts;
     Opts.Limits.MaxOps = Max;
     EXPECT_EQ(test::plainCallDifference(Text, Opts), "") << Max;
+  }
+}
+
+TEST(PlainCallSecondThread, LimitOnPoolEntriesAcrossTheSplit) {
+  const std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                           "qreg q[2];\n" +
+                           manyLines(100, "crz(0.5) q[0],q[1];\n");
+  for (uint64_t Max : {1u, 99u, 100u, 101u, 199u, 200u, 201u}) {
+    qasm::FrontendOptions Opts;
+    Opts.Limits.MaxPoolEntries = Max;
+    EXPECT_EQ(test::plainCallDifference(Text, Opts), "") << Max;
+    // Two wires and one parameter value per line: 100 lines fit in 200.
+    bool Fits = test::elaborate(Text, Opts).Error.empty();
+    EXPECT_EQ(Fits, Max >= 200) << Max;
   }
 }
 

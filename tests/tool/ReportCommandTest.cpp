@@ -117,6 +117,11 @@ TEST_F(ReportCommand, UsageErrorsExitTwo) {
   write("bell.qasm", Bell);
   EXPECT_EQ(invoke("report --format yaml bell.qasm").Exit, 2);
   EXPECT_EQ(invoke("report --bogus bell.qasm").Exit, 2);
+  // Ops are indexed in 32 bits (docs/limits.md); a larger limit would let
+  // the indices wrap.
+  Outcome Big = invoke("report --max-ops 4294967295 bell.qasm");
+  EXPECT_EQ(Big.Exit, 2);
+  EXPECT_NE(Big.Err.find("--max-ops"), std::string::npos) << Big.Err;
   EXPECT_EQ(invoke("report --help").Exit, 0);
 }
 

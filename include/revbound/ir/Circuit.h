@@ -88,6 +88,12 @@ struct Condition {
 
 inline constexpr uint32_t NoCondition = UINT32_MAX;
 
+/// Ops and the pools' entries are indexed in 32 bits, and UINT32_MAX is
+/// kept free as a "none" mark (NoCondition, the schedule's no-op), so a
+/// circuit holds at most this many ops, wires of ops, parameter values and
+/// conditions.
+inline constexpr uint64_t MaxPoolEntries = UINT32_MAX - 1;
+
 /// What a qubit holds at the start and what happens to it at the end
 /// (DESIGN.md, "Roles of wires").
 enum class WireRole : uint8_t {

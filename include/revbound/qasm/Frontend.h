@@ -28,6 +28,10 @@ struct FrontendLimits {
   unsigned MaxNesting = 1000;
   uint64_t MaxOps = 100'000'000;     // top-level operations after broadcasting
   unsigned MaxGateQubits = 256;      // qubit arguments of one gate definition
+  /// Wires of all top-level ops together, and their parameter values: the
+  /// IR's 32-bit indices bound them (ir::MaxPoolEntries). Not an option;
+  /// tests lower it to reach the diagnostic.
+  uint64_t MaxPoolEntries = ir::MaxPoolEntries;
 };
 
 inline constexpr unsigned MaxNestingCap = 2000;

@@ -13,6 +13,9 @@ namespace revbound::analysis {
 namespace {
 
 constexpr uint32_t NoOp = UINT32_MAX;
+// Ops are numbered below ir::MaxPoolEntries, so this is no op's number.
+constexpr uint32_t CallSteps = UINT32_MAX - 1;
+static_assert(ir::MaxPoolEntries <= CallSteps);
 
 class Scheduler {
 public:
@@ -22,7 +25,7 @@ public:
         FirstUse(C.NumQubits, NoPath), LastUse(C.NumQubits, 0),
         LastOp(NumWires, NoOp), LastFree(NumWires, NoOp), LastSlot(NumWires, 0),
         LastFreeSlot(NumWires, 0),
-        Pred(std::make_unique_for_overwrite<PathStep[]>(C.Wires.size())) {
+        StepInto(std::make_unique_for_overwrite<PathStep[]>(C.Ops.size())) {
     for (auto &R : Ready)
       R.assign(NumWires, 0);
     for (auto &F : Free)
@@ -66,17 +69,21 @@ private:
   // into LastOp and LastFree: the op's own slot for the wire, or its first
   // slot where the wire is only a condition it read.
   std::vector<uint32_t> LastSlot, LastFreeSlot;
-  // Per op wire slot, where a longest path into it comes from. Every op
-  // with wires writes all its slots before finish() reads any, so the
-  // array starts unfilled: for a flat file it is the largest one here.
-  // A step names the slot it comes from, so that finish() walks back one
-  // load per step: going through the op and its wires took three
-  // dependent cache misses per step on a large file.
+  // A step of a longest path, back from an op: the op before it and that
+  // op's wire slot (index into C.Wires) the path came in through.
   struct PathStep {
-    uint32_t Op;   // the op before it on the path, or NoOp
-    uint32_t Slot; // that op's slot the path came in through
+    uint32_t Op;   // or NoOp
+    uint32_t Slot;
   };
-  std::unique_ptr<PathStep[]> Pred;
+  // Per op, where a longest path into it comes from. A leaf, measure,
+  // reset or barrier ends all its wires at once, so one step serves every
+  // slot; a call's slots each have their own, kept in SlotSteps, and its
+  // entry here is {CallSteps, index of its first slot's step there}. Every
+  // op with wires writes its entry before finish() reads any, so the array
+  // starts unfilled: for a flat file it is the largest one here (one entry
+  // per op, not per slot, halves the pages it takes).
+  std::unique_ptr<PathStep[]> StepInto;
+  std::vector<PathStep> SlotSteps;
   bool SawBarrier = false; // else finish() need not read the ops' kinds
   llvm::SmallVector<uint32_t, 8> Wires; // the op's wires, then its condition bits
 };
@@ -128,9 +135,7 @@ llvm::Error Scheduler::applyLeaf(uint32_t Index, const ir::Op &O, bool IsT,
     if (__builtin_add_overflow(Start, Weight[M], &End))
       return depthOverflow(O);
     if (All) {
-      for (unsigned I = 0; I < N; ++I) {
-        Pred[O.FirstWire + I] = {CritOp, CritSlot};
-      }
+      StepInto[Index] = {CritOp, CritSlot};
       if (UsesQubits)
         for (unsigned I = 0; I < N; ++I)
           markUse(Wires[I], Start, End);
@@ -185,11 +190,9 @@ llvm::Error Scheduler::applyPlainGate(uint32_t Index, const ir::Op &O,
       __builtin_add_overflow(StartTwo, uint64_t(N >= 2), &EndTwo) ||
       __builtin_add_overflow(StartT, uint64_t(IsT), &EndT))
     return depthOverflow(O);
-  PathStep Step = {StartAll > 0 ? Last[Critical] : NoOp, Slot[Critical]};
-  PathStep *Steps = Pred.get() + O.FirstWire;
+  StepInto[Index] = {StartAll > 0 ? Last[Critical] : NoOp, Slot[Critical]};
   for (unsigned I = 0; I < N; ++I) {
     uint32_t X = W[I]; // a qubit: markUse's test is not needed
-    Steps[I] = Step;
     Slot[X] = O.FirstWire + I;
     if (First[X] == NoPath)
       First[X] = StartAll;
@@ -207,6 +210,8 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
   unsigned K = O.NumWires;
   llvm::SmallVector<uint64_t, 8> In(K), Out(K);
   llvm::SmallVector<uint32_t, 8> InSlot(K), InOp(K);
+  StepInto[Index] = {CallSteps, uint32_t(SlotSteps.size())};
+  PathStep *Steps = &*SlotSteps.insert(SlotSteps.end(), K, PathStep{NoOp, 0});
   for (unsigned M = 0; M < NumDepthMetrics; ++M) {
     std::vector<uint64_t> &R = Ready[M];
     bool All = M == unsigned(DepthMetric::All);
@@ -261,10 +266,8 @@ llvm::Error Scheduler::applyCall(uint32_t Index, const ir::Op &O,
       }
       Out[J] = Best;
       Latest = std::max(Latest, Best);
-      if (All) {
-        Pred[O.FirstWire + J] = {In[From] > 0 ? InOp[From] : NoOp,
-                                 InSlot[From]};
-      }
+      if (All)
+        Steps[J] = {In[From] > 0 ? InOp[From] : NoOp, InSlot[From]};
     }
     for (unsigned J = 0; J < K; ++J)
       R[Wires[J]] = Out[J];
@@ -362,7 +365,10 @@ llvm::Expected<Schedule> Scheduler::finish() {
     // miss per step on a large file, so only where there are barriers.
     if (!SawBarrier || C.Ops[Step.Op].Kind != ir::OpKind::Barrier)
       Out.CriticalOps.push_back(Step.Op);
-    Step = Pred[Step.Slot];
+    PathStep Into = StepInto[Step.Op];
+    if (Into.Op == CallSteps)
+      Into = SlotSteps[Into.Slot + (Step.Slot - C.Ops[Step.Op].FirstWire)];
+    Step = Into;
   }
   std::reverse(Out.CriticalOps.begin(), Out.CriticalOps.end());
   return Out;

@@ -315,6 +315,27 @@ TEST(Schedule, SummariesMatchBruteForceOnRandomNestedCircuits) {
   }
 }
 
+// Checks that the summary-method path leaves a call through the wire it
+// came in on: here the second one, q[1], which three h put three layers
+// deep, while q[0] is fresh and g keeps its wires apart (the path out of
+// its first wire starts nowhere). The expected steps follow from ASAP
+// layering (common practice): g ends at layer 4 on q[1], after the h.
+TEST(Schedule, SummaryPathEntersCallsThroughTheirWire) {
+  std::string Text = std::string(Header) +
+                     "gate g a, b { x a; x b; }\nqreg q[3];\n"
+                     "h q[1];\nh q[1];\nh q[1];\ng q[0], q[1];\n";
+  report::AnalysisOptions Opts;
+  Opts.MaxDagNodes = 1;
+  auto R = analyzeText(Text, Opts);
+  ASSERT_TRUE(R);
+  EXPECT_EQ(R->Path.Method, "summary");
+  EXPECT_EQ(R->DepthAll, 4u);
+  std::vector<std::string> Gates;
+  for (const auto &S : R->Path.Listed)
+    Gates.push_back(S.Gate + "@" + std::to_string(S.At.Line));
+  EXPECT_EQ(Gates, (std::vector<std::string>{"h@5", "h@6", "h@7", "g@8"}));
+}
+
 // Checks the summary-method critical path: consecutive steps share a wire
 // and the steps' own delays add up to the depth, on a circuit too large for
 // the leaf DAG.

@@ -20,6 +20,9 @@
 #include <cmath>
 #include <fmt/format.h>
 #include <numbers>
+#include <optional>
+#include <system_error>
+#include <thread>
 
 namespace revbound::qasm {
 
@@ -168,9 +171,9 @@ struct WireRef {
 
 /// Where a circuit's top-level ops go.
 struct OpPools {
-  std::vector<ir::Op> &Ops;
-  std::vector<uint32_t> &Wires;
-  std::vector<double> &Params;
+  ir::Pool<ir::Op> &Ops;
+  ir::Pool<uint32_t> &Wires;
+  ir::Pool<double> &Params;
 };
 
 // Few op statements are shorter than "h q[0];" and a newline, so this
@@ -266,9 +269,9 @@ public:
            NumRegisters == C.QRegs.size() + C.CRegs.size();
   }
 
-  std::vector<ir::Op> Ops;
-  std::vector<uint32_t> Wires;
-  std::vector<double> Params;
+  ir::Pool<ir::Op> Ops;
+  ir::Pool<uint32_t> Wires;
+  ir::Pool<double> Params;
 
 private:
   // Declarations only ever add a gate or a register, so equal counts mean
@@ -757,17 +760,46 @@ bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
       C.Wires.size() + Fork.Wires.size() > Limits.MaxPoolEntries ||
       C.Params.size() + Fork.Params.size() > Limits.MaxPoolEntries)
     return false;
-  uint32_t WireBase = uint32_t(C.Wires.size());
-  uint32_t ParamBase = uint32_t(C.Params.size());
-  // One range insert: a push_back per op checked the capacity each time.
-  auto Rebased = llvm::map_range(Fork.Ops, [=](ir::Op O) {
-    O.FirstWire += WireBase;
-    O.FirstParam += ParamBase;
-    return O;
-  });
-  C.Ops.insert(C.Ops.end(), Rebased.begin(), Rebased.end());
-  C.Wires.insert(C.Wires.end(), Fork.Wires.begin(), Fork.Wires.end());
-  C.Params.insert(C.Params.end(), Fork.Params.begin(), Fork.Params.end());
+  const size_t OpBase = C.Ops.size();
+  const uint32_t WireBase = uint32_t(C.Wires.size());
+  const uint32_t ParamBase = uint32_t(C.Params.size());
+  // Sized first and filled after (ir::PoolAllocator writes nothing), so
+  // that two threads share the copy. Most of its time is the first touch
+  // of the new pages, which one thread would take alone.
+  C.Ops.resize(OpBase + Fork.Ops.size());
+  C.Wires.resize(WireBase + Fork.Wires.size());
+  C.Params.resize(ParamBase + Fork.Params.size());
+  auto CopyPart = [&](unsigned Part, unsigned Parts) {
+    auto Range = [=](size_t N) {
+      return std::pair(N * Part / Parts, N * (Part + 1) / Parts);
+    };
+    auto [OpsFrom, OpsTo] = Range(Fork.Ops.size());
+    for (size_t I = OpsFrom; I < OpsTo; ++I) {
+      ir::Op O = Fork.Ops[I];
+      O.FirstWire += WireBase;
+      O.FirstParam += ParamBase;
+      C.Ops[OpBase + I] = O;
+    }
+    auto [WiresFrom, WiresTo] = Range(Fork.Wires.size());
+    std::copy(Fork.Wires.begin() + WiresFrom, Fork.Wires.begin() + WiresTo,
+              C.Wires.begin() + WireBase + WiresFrom);
+    auto [ParamsFrom, ParamsTo] = Range(Fork.Params.size());
+    std::copy(Fork.Params.begin() + ParamsFrom, Fork.Params.begin() + ParamsTo,
+              C.Params.begin() + ParamBase + ParamsFrom);
+  };
+  std::optional<std::thread> Helper;
+  // Below this a thread costs more than it saves.
+  constexpr size_t MinOpsForHelper = 1u << 16;
+  if (Fork.Ops.size() >= MinOpsForHelper) {
+    try {
+      Helper.emplace([&] { CopyPart(1, 2); });
+    } catch (const std::system_error &) {
+      // no thread to be had: this one copies everything
+    }
+  }
+  CopyPart(0, Helper ? 2 : 1);
+  if (Helper)
+    Helper->join();
   return true;
 }
 

@@ -11,6 +11,7 @@
 
 #include "revbound/qasm/Parser.h"
 
+#include <fmt/format.h>
 #include <gtest/gtest.h>
 
 using namespace revbound;
@@ -322,6 +323,23 @@ TEST(PlainCallSecondThread, LimitOnOpsAcrossTheSplit) {
     Opts.Limits.MaxOps = Max;
     EXPECT_EQ(test::plainCallDifference(Text, Opts), "") << Max;
   }
+}
+
+// Enough ops past the split that the join copies on two threads
+// (Elaborator::joinPlainCalls); every line differs, so that a part copied
+// to the wrong place shows.
+TEST(PlainCallSecondThread, LargeJoinCopiesOnTwoThreads) {
+  std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                     "qreg q[7];\ncreg c[7];\nbarrier q;\nmeasure q[3] -> c[3];\n"
+                     "u3(0.5,0.25,0.125) q[6];\n";
+  for (unsigned I = 0; I < 100'000; ++I) {
+    unsigned A = I % 7, B = (I / 7 + 1 + A) % 7;
+    if (B == A)
+      B = (A + 1) % 7;
+    Text += fmt::format("rz({}) q[{}];\ncx q[{}],q[{}];\nh q[{}];\n", I, A,
+                        A, B, B);
+  }
+  EXPECT_EQ(test::plainCallDifference(Text), "");
 }
 
 TEST(PlainCallSecondThread, LimitOnPoolEntriesAcrossTheSplit) {

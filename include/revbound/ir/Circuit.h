@@ -22,8 +22,10 @@
 #include "llvm/Support/SMLoc.h"
 
 #include <cstdint>
+#include <memory>
 #include <optional>
 #include <string>
+#include <type_traits>
 #include <utility>
 #include <vector>
 
@@ -127,6 +129,30 @@ struct Op {
   llvm::SMLoc Loc;
 };
 
+/// The pools' allocator. It leaves a new element unwritten where
+/// std::allocator would zero it, so that a pool can be sized first and
+/// filled after, from two threads at once (the front end joining the two
+/// halves of a large file): zeroing first would fault in every page of the
+/// new part on one thread. Only for element types that need no
+/// construction: ops, integers, doubles.
+template <typename T> struct PoolAllocator : std::allocator<T> {
+  using value_type = T;
+  PoolAllocator() = default;
+  template <typename U> PoolAllocator(const PoolAllocator<U> &) noexcept {}
+
+  template <typename U> void construct(U *) noexcept {
+    static_assert(std::is_trivially_copyable_v<U> &&
+                  std::is_trivially_destructible_v<U>);
+  }
+  template <typename U, typename... Args>
+  void construct(U *P, Args &&...A) {
+    ::new (static_cast<void *>(P)) U(std::forward<Args>(A)...);
+  }
+};
+
+/// A pool of a circuit: resize() leaves new entries for the caller to write.
+template <typename T> using Pool = std::vector<T, PoolAllocator<T>>;
+
 /// A map key for a call of gate `G` with parameter values `Params`: their
 /// bytes, so that equal calls (to the bit) share one memo entry.
 std::string callKey(GateId G, llvm::ArrayRef<double> Params);
@@ -142,9 +168,9 @@ public:
   uint32_t NumClbits = 0;
 
   // The pools a large file fills.
-  std::vector<Op> Ops;
-  std::vector<uint32_t> Wires;
-  std::vector<double> Params;
+  Pool<Op> Ops;
+  Pool<uint32_t> Wires;
+  Pool<double> Params;
   std::vector<Condition> Conditions;
 
   /// One role per qubit (empty means every qubit is an output), and where

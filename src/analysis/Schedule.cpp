@@ -15,6 +15,9 @@ namespace {
 constexpr uint32_t NoOp = UINT32_MAX;
 // Ops are numbered below ir::MaxPoolEntries, so this is no op's number.
 constexpr uint32_t CallSteps = UINT32_MAX - 1;
+// How far below the current op finish() prefetches: 64 path steps, eight
+// 64-byte lines.
+constexpr uint32_t PrefetchAhead = 64;
 static_assert(ir::MaxPoolEntries <= CallSteps);
 
 class Scheduler {
@@ -361,6 +364,13 @@ llvm::Expected<Schedule> Scheduler::finish() {
     return Out;
   PathStep Step = {LastOp[Wire], LastSlot[Wire]};
   while (Step.Op != NoOp) {
+    // The walk goes down through the ops a few entries at a time, each
+    // step's address known only from the step before: fetching the lines
+    // below ahead of it saves a cache miss per step on a large file.
+    if (Step.Op >= PrefetchAhead + 8) {
+      __builtin_prefetch(StepInto.get() + Step.Op - PrefetchAhead);
+      __builtin_prefetch(StepInto.get() + Step.Op - PrefetchAhead - 8);
+    }
     // A barrier aligns and takes no layer. Reading the op's kind is a cache
     // miss per step on a large file, so only where there are barriers.
     if (!SawBarrier || C.Ops[Step.Op].Kind != ir::OpKind::Barrier)

@@ -169,6 +169,13 @@ struct WireRef {
   const Operand *Source = nullptr;
 };
 
+/// True when pools of these sizes stay within `L`'s ops and entries.
+static bool fitLimits(const FrontendLimits &L, uint64_t Ops, uint64_t Wires,
+                      uint64_t Params) {
+  return Ops <= L.MaxOps && Wires <= L.MaxPoolEntries &&
+         Params <= L.MaxPoolEntries;
+}
+
 /// Where a circuit's top-level ops go.
 struct OpPools {
   ir::Pool<ir::Op> &Ops;
@@ -677,8 +684,7 @@ llvm::Error Elaborator::addOp(ir::Op O) {
   if (C.Ops.size() >= Limits.MaxOps)
     return errorTooManyOps(O.Loc);
   // The op's wires and parameters are in the pools already.
-  if (C.Wires.size() > Limits.MaxPoolEntries ||
-      C.Params.size() > Limits.MaxPoolEntries)
+  if (!fitLimits(Limits, 0, C.Wires.size(), C.Params.size()))
     return errorPoolsFull(O.Loc);
   C.Ops.push_back(O);
   return llvm::Error::success();
@@ -709,9 +715,8 @@ bool PlainCallAppender::append(const PlainCall &Call,
   const ir::GateDef &Def = Gates[Id];
   unsigned Arity = unsigned(Call.Args.size());
   if (Call.Params.size() != Def.numParams() || Arity != Def.numQubits() ||
-      To.Ops.size() >= Limits.MaxOps ||
-      To.Wires.size() + Arity > Limits.MaxPoolEntries ||
-      To.Params.size() + Call.Params.size() > Limits.MaxPoolEntries)
+      !fitLimits(Limits, To.Ops.size() + 1, To.Wires.size() + Arity,
+                 To.Params.size() + Call.Params.size()))
     return false;
   uint32_t Wires[8];
   if (Arity > std::size(Wires))
@@ -756,9 +761,10 @@ Elaborator::forkPlainCalls(llvm::StringRef Text) {
 
 bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
   auto &Fork = static_cast<PlainCallFork &>(Sink); // made by forkPlainCalls
-  if (!Fork.sameNamesAs(C) || C.Ops.size() + Fork.Ops.size() > Limits.MaxOps ||
-      C.Wires.size() + Fork.Wires.size() > Limits.MaxPoolEntries ||
-      C.Params.size() + Fork.Params.size() > Limits.MaxPoolEntries)
+  if (!Fork.sameNamesAs(C) ||
+      !fitLimits(Limits, C.Ops.size() + Fork.Ops.size(),
+                 C.Wires.size() + Fork.Wires.size(),
+                 C.Params.size() + Fork.Params.size()))
     return false;
   const size_t OpBase = C.Ops.size();
   const uint32_t WireBase = uint32_t(C.Wires.size());

@@ -119,26 +119,30 @@ TEST(Elaboration, OpLimit) {
 TEST(Elaboration, PoolEntryLimit) {
   qasm::FrontendOptions Opts;
   Opts.Limits.MaxPoolEntries = 5;
-  const char *Message = "error: the top-level operations pass 5 wires or "
-                        "parameter values in all; revbound indexes them in "
-                        "32 bits\n";
+  // The diagnostic at `Line`, whose statement is `Statement`.
+  auto PoolsFull = [](unsigned Line, const std::string &Statement) {
+    return "test.qasm:" + std::to_string(Line) +
+           ":1: error: the top-level operations pass 5 wires or parameter "
+           "values in all; revbound indexes them in 32 bits\n" +
+           Statement + "\n^\n";
+  };
   // Wires: the third cx brings them to six.
   EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[3];\nCX q[0],q[1];\n"
                       "CX q[1],q[2];\nCX q[0],q[2];\n",
                       Opts)
                 .Error,
-            std::string("test.qasm:5:1: ") + Message + "CX q[0],q[2];\n^\n");
+            PoolsFull(5, "CX q[0],q[2];"));
   // A barrier's wires, and a broadcast's.
   EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[6];\nbarrier q;\n", Opts).Error,
-            std::string("test.qasm:3:1: ") + Message + "barrier q;\n^\n");
+            PoolsFull(3, "barrier q;"));
   EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[6];\nU(0,0,0) q;\n", Opts).Error,
-            std::string("test.qasm:3:1: ") + Message + "U(0,0,0) q;\n^\n");
+            PoolsFull(3, "U(0,0,0) q;"));
   // Parameter values: U takes three, so the second U passes five.
   EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[1];\nU(0,0,0) q[0];\n"
                       "U(0,0,0) q[0];\n",
                       Opts)
                 .Error,
-            std::string("test.qasm:4:1: ") + Message + "U(0,0,0) q[0];\n^\n");
+            PoolsFull(4, "U(0,0,0) q[0];"));
   // At the bound exactly, nothing is wrong.
   EXPECT_EQ(elaborate("OPENQASM 2.0;\nqreg q[5];\nbarrier q;\n", Opts).Error,
             "");

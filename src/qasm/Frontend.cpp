@@ -8,6 +8,7 @@
 //
 //===----------------------------------------------------------------------===//
 #include "revbound/qasm/Frontend.h"
+#include "PlainCallScanner.h"
 #include "revbound/qasm/Roles.h"
 
 #include "llvm/ADT/STLExtras.h"
@@ -218,6 +219,11 @@ public:
   bool append(const PlainCall &Call, const FrontendLimits &Limits,
               OpPools To);
 
+  /// PlainCallSink::takePlainRun into `To`, each call taken as append
+  /// would take it, but read and resolved in one pass (readPlainRun).
+  const char *appendRun(const char *P, const FrontendLimits &Limits, OpPools To,
+                        const std::atomic<bool> &Cancel, const char *Limit);
+
   /// The names' entries, through the caches that append uses too.
   const llvm::StringMapEntry<ir::GateId> *findGate(llvm::StringRef Name) {
     return GateCache.find(Name);
@@ -227,6 +233,37 @@ public:
   }
 
 private:
+  /// The gate named `Name` for readPlainRun, or null when there is none
+  /// or the name is a keyword (the built-in U and CX are read by the
+  /// parser). The result lives until the next call.
+  const PlainGate *plainGate(llvm::StringRef Name) {
+    const auto *Entry = GateCache.find(Name);
+    if (!Entry || chars::keywordKind(Name) != Tok::Identifier)
+      return nullptr;
+    const ir::GateDef &Def = Gates[Entry->getValue()];
+    Resolved = {Entry->getValue(), Def.numParams(), Def.numQubits()};
+    return &Resolved;
+  }
+
+  /// Wire `Wire` for `Register[Index]` when that names a qubit. A name
+  /// found among the registers was declared as one, so it is no keyword.
+  bool qubit(llvm::StringRef Register, uint64_t Index, uint32_t &Wire) {
+    const auto *Reg = findOperandRegister(Register);
+    uint32_t Code = Reg ? Reg->getValue() : 0;
+    if (!(Code & 1)) // no such register, or a classical one
+      return false;
+    const ir::Register &R = QRegs[Code >> 1];
+    if (Index >= R.Size)
+      return false;
+    Wire = R.Offset + uint32_t(Index);
+    return true;
+  }
+
+  /// The rest of applyGate's rules (distinct qubits) and the limits, then
+  /// the op: `Params` and `Wires` hold G's counts of each.
+  bool add(const PlainGate &G, llvm::SMLoc Loc, const double *Params,
+           const uint32_t *Wires, const FrontendLimits &Limits, OpPools To);
+
   /// Most files name one quantum register in every operand, so the last
   /// operand's name is compared first: a byte or two instead of the
   /// cache's hashing (the first byte apart, so that a one-byte name costs
@@ -251,6 +288,7 @@ private:
   NameCache<uint32_t> RegisterCache; // index * 2 + (1 for quantum)
   const llvm::StringMapEntry<uint32_t> *LastRegister = nullptr;
   llvm::StringRef LastRegisterName; // in a source buffer, alive while parsing
+  PlainGate Resolved;               // plainGate's result
 };
 
 /// A fork for StatementSink::forkPlainCalls: copies of the names, and pools
@@ -268,6 +306,10 @@ public:
 
   bool tryPlainCall(const PlainCall &Call) override {
     return Appender.append(Call, Limits, {Ops, Wires, Params});
+  }
+  const char *takePlainRun(const char *P, const std::atomic<bool> &Cancel,
+                           const char *Limit) override {
+    return Appender.appendRun(P, Limits, {Ops, Wires, Params}, Cancel, Limit);
   }
 
   /// True when `C` has declared nothing since the fork was made.
@@ -304,6 +346,11 @@ public:
   llvm::Error onStatement(const Statement &S) override;
   bool tryPlainCall(const PlainCall &Call) override {
     return Plain.append(Call, Limits, {C.Ops, C.Wires, C.Params});
+  }
+  const char *takePlainRun(const char *P, const std::atomic<bool> &Cancel,
+                           const char *Limit) override {
+    return Plain.appendRun(P, Limits, {C.Ops, C.Wires, C.Params}, Cancel,
+                           Limit);
   }
   std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
   bool defineBuiltinLibrary() override;
@@ -708,49 +755,68 @@ llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
 bool PlainCallAppender::append(const PlainCall &Call,
                                const FrontendLimits &Limits,
                                OpPools To) {
-  const auto *Entry = GateCache.find(Call.Gate.Name);
-  if (!Entry)
+  const PlainGate *G = plainGate(Call.Gate.Name);
+  if (!G || Call.Params.size() != G->NumParams ||
+      Call.Args.size() != G->NumQubits)
     return false;
-  ir::GateId Id = Entry->getValue();
-  const ir::GateDef &Def = Gates[Id];
-  unsigned Arity = unsigned(Call.Args.size());
-  if (Call.Params.size() != Def.numParams() || Arity != Def.numQubits() ||
-      !fitLimits(Limits, To.Ops.size() + 1, To.Wires.size() + Arity,
-                 To.Params.size() + Call.Params.size()))
+  uint32_t Wires[PlainRunMaxQubits];
+  if (G->NumQubits > std::size(Wires))
     return false;
-  uint32_t Wires[8];
-  if (Arity > std::size(Wires))
-    return false;
-  for (unsigned A = 0; A < Arity; ++A) {
-    const PlainOperand &Arg = Call.Args[A];
-    const auto *Reg = findOperandRegister(Arg.Reg.Name);
-    uint32_t Code = Reg ? Reg->getValue() : 0;
-    if (!(Code & 1)) // no such register, or a classical one
+  for (unsigned A = 0; A < G->NumQubits; ++A)
+    if (!qubit(Call.Args[A].Reg.Name, Call.Args[A].Index, Wires[A]))
       return false;
-    const ir::Register &R = QRegs[Code >> 1];
-    if (Arg.Index >= R.Size)
-      return false;
-    Wires[A] = R.Offset + uint32_t(Arg.Index);
+  return add(*G, Call.Gate.Loc, Call.Params.data(), Wires, Limits, To);
+}
+
+bool PlainCallAppender::add(const PlainGate &G, llvm::SMLoc Loc,
+                            const double *Params, const uint32_t *Wires,
+                            const FrontendLimits &Limits, OpPools To) {
+  const unsigned Arity = G.NumQubits;
+  for (unsigned A = 1; A < Arity; ++A)
     for (unsigned B = 0; B < A; ++B)
       if (Wires[B] == Wires[A])
         return false;
-  }
+  if (!fitLimits(Limits, To.Ops.size() + 1, To.Wires.size() + Arity,
+                 To.Params.size() + G.NumParams))
+    return false;
   ir::Op O;
   O.Kind = ir::OpKind::Gate;
-  O.Gate = Id;
+  O.Gate = G.Id;
   O.FirstWire = uint32_t(To.Wires.size());
   O.NumWires = Arity;
   O.FirstParam = uint32_t(To.Params.size());
   O.Cond = ir::NoCondition;
-  O.Loc = Call.Gate.Loc;
+  O.Loc = Loc;
   // push_back, not a range insert: the general insert's bookkeeping for a
   // middle position costs more than these one to three elements.
-  for (double V : Call.Params)
-    To.Params.push_back(V);
+  for (unsigned I = 0; I < G.NumParams; ++I)
+    To.Params.push_back(Params[I]);
   for (unsigned A = 0; A < Arity; ++A)
     To.Wires.push_back(Wires[A]);
   To.Ops.push_back(O);
   return true;
+}
+
+const char *PlainCallAppender::appendRun(const char *P,
+                                         const FrontendLimits &Limits,
+                                         OpPools To,
+                                         const std::atomic<bool> &Cancel,
+                                         const char *Limit) {
+  struct Target {
+    PlainCallAppender &A;
+    const FrontendLimits &Limits;
+    OpPools To;
+    const PlainGate *gate(llvm::StringRef Name) { return A.plainGate(Name); }
+    bool qubit(llvm::StringRef Register, uint64_t Index, uint32_t &Wire) {
+      return A.qubit(Register, Index, Wire);
+    }
+    bool add(const PlainGate &G, llvm::SMLoc Loc, const double *Params,
+             const uint32_t *Wires) {
+      return A.add(G, Loc, Params, Wires, Limits, To);
+    }
+    bool takeCall(const PlainCall &Call) { return A.append(Call, Limits, To); }
+  } T{*this, Limits, To};
+  return readPlainRun(P, T, Cancel, Limit);
 }
 
 std::unique_ptr<PlainCallSink>

@@ -32,6 +32,12 @@ PlainCallSink::~PlainCallSink() = default;
 
 bool StatementSink::tryPlainCall(const PlainCall &) { return false; }
 
+const char *PlainCallSink::takePlainRun(const char *P,
+                                        const std::atomic<bool> &Cancel,
+                                        const char *Limit) {
+  return scanPlainRun(P, *this, Cancel, Limit);
+}
+
 std::unique_ptr<PlainCallSink>
 StatementSink::forkPlainCalls(llvm::StringRef) {
   return nullptr;
@@ -184,8 +190,8 @@ void Parser::startSecondReader(const char *From) {
   SecondReader *Reader = R.get();
   try {
     R->Thread = std::thread([Reader] {
-      Reader->End =
-          scanPlainRun(Reader->Start, *Reader->Fork, Reader->Cancel);
+      Reader->End = Reader->Fork->takePlainRun(Reader->Start, Reader->Cancel,
+                                               /*Limit=*/nullptr);
     });
   } catch (const std::system_error &) {
     return; // no thread to be had: everything is read on this one
@@ -332,8 +338,8 @@ llvm::Error Parser::parseStatement(unsigned Depth) {
       // its start so that the join sees the statement there.
       static const std::atomic<bool> NeverCancelled{false};
       if (const char *RunEnd =
-              scanPlainRun(After, Sink, NeverCancelled,
-                           InMain && Second ? Second->Start : nullptr))
+              Sink.takePlainRun(After, NeverCancelled,
+                                InMain && Second ? Second->Start : nullptr))
         After = RunEnd;
       L->resumeAt(After);
       PrevEnd = After;

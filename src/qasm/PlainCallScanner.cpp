@@ -15,16 +15,6 @@ namespace {
 // The buffer ends in a NUL that no class and no punctuation matches, so each
 // loop stops at it; one byte past a non-NUL byte is still in the buffer.
 
-const char *skipBlanks(const char *P) {
-  // Most tokens follow one another with no blank: one comparison says so
-  // (every byte above ' ' is not a blank).
-  if (static_cast<unsigned char>(*P) > ' ')
-    return P;
-  while (*P == ' ' || *P == '\t')
-    ++P;
-  return P;
-}
-
 /// A number by Lexer::lexNumber's grammar, or nullptr where the lexer would
 /// report an error or the value is out of a double's range (the parser's
 /// messages for those).
@@ -61,11 +51,8 @@ const char *scanFactor(const char *P, double &Value) {
   return P;
 }
 
-/// A parameter: factors joined by '*' and '/', as in `-pi/4` or `3*pi/8`,
-/// evaluated left to right with the same double operations as the
-/// elaborator's ParamExpr, so the value is the same to the bit. Other
-/// operators ('+', '^', calls, parentheses) are left to the parser, and so
-/// is a value that is not finite (the parser's diagnostic).
+} // namespace
+
 const char *scanParam(const char *P, double &Value) {
   if (!(P = scanFactor(P, Value)))
     return nullptr;
@@ -82,6 +69,31 @@ const char *scanParam(const char *P, double &Value) {
   return std::isfinite(Value) && *P != '^' ? P : nullptr;
 }
 
+const char *scanIndex(const char *P, uint64_t &Index) {
+  P = skipBlanks(P);
+  if (*P != '[')
+    return nullptr;
+  P = skipBlanks(P + 1);
+  const char *Digits = P;
+  uint64_t Value = 0;
+  while (isDigit(*P))
+    Value = Value * 10 + unsigned(*P++ - '0');
+  // Up to 19 digits cannot overflow 64 bits; no register is that large,
+  // so longer indices are left to the parser's range diagnostic.
+  if (P == Digits || P - Digits > 19 || (P - Digits > 1 && *Digits == '0'))
+    return nullptr;
+  Index = Value;
+  if (*P == ']')
+    return P + 1;
+  // A letter ('e' too) or a '.' would make this a different token.
+  if (isIdentStart(*P) || *P == '.')
+    return nullptr;
+  P = skipBlanks(P);
+  return *P == ']' ? P + 1 : nullptr;
+}
+
+namespace {
+
 /// `name [ index ]`, the name not a keyword, the index a nninteger.
 const char *scanOperand(const char *P, PlainOperand &Out) {
   if (!isIdentStart(*P))
@@ -92,26 +104,7 @@ const char *scanOperand(const char *P, PlainOperand &Out) {
   Out.Reg.Loc = llvm::SMLoc::getFromPointer(Start);
   if (keywordKind(Out.Reg.Name) != Tok::Identifier)
     return nullptr;
-  P = skipBlanks(P);
-  if (*P != '[')
-    return nullptr;
-  P = skipBlanks(P + 1);
-  const char *Digits = P;
-  uint64_t Index = 0;
-  while (isDigit(*P))
-    Index = Index * 10 + unsigned(*P++ - '0');
-  // Up to 19 digits cannot overflow 64 bits; no register is that large,
-  // so longer indices are left to the parser's range diagnostic.
-  if (P == Digits || P - Digits > 19 || (P - Digits > 1 && *Digits == '0'))
-    return nullptr;
-  Out.Index = Index;
-  if (*P == ']')
-    return P + 1;
-  // A letter ('e' too) or a '.' would make this a different token.
-  if (isIdentStart(*P) || *P == '.')
-    return nullptr;
-  P = skipBlanks(P);
-  return *P == ']' ? P + 1 : nullptr;
+  return scanIndex(P, Out.Index);
 }
 
 } // namespace

@@ -10,6 +10,8 @@
 #include "TestSupport.h"
 
 #include "revbound/qasm/Parser.h"
+// The one-pass reader is internal to the front end.
+#include "../../src/qasm/PlainCallScanner.h"
 
 #include <fmt/format.h>
 #include <gtest/gtest.h>
@@ -104,34 +106,53 @@ TEST(PlainCall, RefusedForEverythingElse) {
 TEST(PlainCall, SameCircuitAndDiagnosticsBothWays) {
   const std::string Head = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
                            "qreg q[4];\nqreg r[2];\ncreg c[4];\n";
-  for (const char *Body : {
-           "h q[0];\ncx q[0],q[1];\nrz(-0.5) q[2];\nu3(1,2,3) r[1];\n",
-           "rz(0) q[0]; rz(-0) q[1]; rz(1e-400) q[2]; rz(4.9e-324) q[3];\n",
-           "rz(0.1000000000000000055511151231257827) q[0];\n",
-           "rz(pi/4) q[0]; rz(-pi/4) q[1]; rz(pi*-2/3) q[2]; rz(2*pi/3) q[3];\n",
-           "rz(1e308*10) q[0];\n", "rz(1/0) q[0];\n", "rz(0/0) q[0];\n",
-           "u3(pi/7*3/11, -pi*1e-3, 5/pi) r[0];\n",
-           "h q[4];\n",           // index out of range
-           "h c[0];\n",           // a classical register as a qubit
-           // Switching registers: r[2] is past r's size though within q's.
-           "cx q[0],r[1];\ncx r[0],q[1];\nh q[3];\nh r[2];\n",
-           "h q[0];\nh c[0];\n",  // the last register, then a classical one
-           "h q[0];\nh qq[0];\nh r[0];\nh rr[0];\n", // names sharing a byte
-           "qreg qa[1];\nqreg qb[3];\nh qb[2];\nh qa[2];\n", // and a length
-           "h s[0];\n",           // an undeclared register
-           "cx q[1],q[1];\n",     // a repeated qubit
-           "nosuch q[0];\n",      // an unknown gate
-           "cx q[0];\n",          // wrong arity
-           "rz q[0];\n",          // a missing parameter
-           "h(0.5) q[0];\n",      // an extra parameter
-           "rz(1e400) q[0];\n",   // out of range, the parser's message
-           "h q[0]\n",            // missing ';'
-           "gate g a { h a; }\ng q[0];\ng(1) q[0];\n",
-           "h q;\ncx q, r;\n",    // broadcasting, and a size mismatch
-           "h q[0]; //! role q[1] ancilla\n",
-           "cx q[0], q[2]; if (c==0) h q[0]; h q[3];\n"}) {
-    std::string Text = Head + Body;
-    EXPECT_EQ(test::plainCallDifference(Text), "") << Body;
+  for (const char *Body :
+       {"h q[0];\ncx q[0],q[1];\nrz(-0.5) q[2];\nu3(1,2,3) r[1];\n",
+        "rz(0) q[0]; rz(-0) q[1]; rz(1e-400) q[2]; rz(4.9e-324) q[3];\n",
+        "rz(0.1000000000000000055511151231257827) q[0];\n",
+        "rz(pi/4) q[0]; rz(-pi/4) q[1]; rz(pi*-2/3) q[2]; rz(2*pi/3) q[3];\n",
+        "rz(1e308*10) q[0];\n", "rz(1/0) q[0];\n", "rz(0/0) q[0];\n",
+        "u3(pi/7*3/11, -pi*1e-3, 5/pi) r[0];\n",
+        "h q[4];\n", // index out of range
+        "h c[0];\n", // a classical register as a qubit
+        // Switching registers: r[2] is past r's size though within q's.
+        "cx q[0],r[1];\ncx r[0],q[1];\nh q[3];\nh r[2];\n",
+        "h q[0];\nh c[0];\n", // the last register, then a classical one
+        "h q[0];\nh qq[0];\nh r[0];\nh rr[0];\n", // names sharing a byte
+        "qreg qa[1];\nqreg qb[3];\nh qb[2];\nh qa[2];\n", // and a length
+        "h s[0];\n",         // an undeclared register
+        "cx q[1],q[1];\n",   // a repeated qubit
+        "nosuch q[0];\n",    // an unknown gate
+        "cx q[0];\n",        // wrong arity
+        "rz q[0];\n",        // a missing parameter
+        "h(0.5) q[0];\n",    // an extra parameter
+        "rz(1e400) q[0];\n", // out of range, the parser's message
+        "h q[0]\n",          // missing ';'
+        "gate g a { h a; }\ng q[0];\ng(1) q[0];\n",
+        "h q;\ncx q, r;\n", // broadcasting, and a size mismatch
+        "h q[0]; //! role q[1] ancilla\n",
+        "cx q[0], q[2]; if (c==0) h q[0]; h q[3];\n",
+        // Runs of calls that the one-pass reader (readPlainRun) ends
+        // on: keywords, counts that do not match, gates wider than its
+        // arrays (nine qubits, nine parameters).
+        "h q[0]; U(0,0,0) q[1]; CX q[0],q[1]; h q[2];\n",
+        "h q[0]; rz(1,2) q[1]; h q[2];\n", "h q[0]; h() q[1]; h q[2];\n",
+        "h q[0]; h q[1], q[2]; h q[3];\n", "h q[0]; cx q[1] q[2];\n",
+        "h q[0]; rz(0.5 q[1];\n", "h q[0]; h q[0]x;\n",
+        "qreg w[9];\ngate nine a,b,c,d,e,f,g,h,i { cx a, i; }\n"
+        "h w[0]; nine w[0],w[1],w[2],w[3],w[4],w[5],w[6],w[7],w[8]; h w[8];\n"
+        "nine w[0],w[1],w[2],w[3],w[4],w[5],w[6],w[7],w[0]; h w[1];\n",
+        "gate p9(a,b,c,d,e,f,g,h,i) x { rz(a+i) x; }\n"
+        "h q[0]; p9(1,2,3,4,5,6,7,8,9) q[1]; p9(1,2,3,4,5,6,7,8) q[1];\n",
+        "gate p8(a,b,c,d,e,f,g,h) x { rz(a+h) x; }\n"
+        "h q[0]; p8(1,2,3,4,5,6,7,-pi/8) q[1]; p8(1,2,3,4,5,6,7,8,9) "
+        "q[1];\n"}) {
+    // The first plain call of a run goes through tryPlainCall, the rest
+    // through the one-pass reader: each body is read both as the first
+    // and after one.
+    EXPECT_EQ(test::plainCallDifference(Head + Body), "") << Body;
+    EXPECT_EQ(test::plainCallDifference(Head + "h q[1];\n" + Body), "")
+        << "after a call: " << Body;
   }
 }
 
@@ -191,6 +212,67 @@ TEST(PlainCall, LimitOnPoolEntriesIsTheSameDiagnostic) {
               "")
         << Max;
   }
+}
+
+// The one-pass reader itself, against a target that records what it is
+// asked: the names resolved, the calls added whole, the wide ones handed
+// over as PlainCalls, and where the run stops.
+struct RecordingTarget {
+  std::vector<std::string> Log;
+  qasm::PlainGate Gate;
+  const qasm::PlainGate *gate(llvm::StringRef Name) {
+    Log.push_back("gate " + Name.str());
+    if (Name == "h" || Name == "rz" || Name == "cx" || Name == "wide") {
+      Gate.NumParams = Name == "rz" ? 1 : Name == "wide" ? 9 : 0;
+      Gate.NumQubits = Name == "cx" ? 2 : 1;
+      return &Gate;
+    }
+    return nullptr;
+  }
+  bool qubit(llvm::StringRef Register, uint64_t Index, uint32_t &Wire) {
+    Wire = uint32_t(Index);
+    return Register == "q";
+  }
+  bool add(const qasm::PlainGate &G, llvm::SMLoc, const double *Params,
+           const uint32_t *Wires) {
+    std::string Entry = "add";
+    for (unsigned I = 0; I < G.NumParams; ++I)
+      Entry += fmt::format(" {}", Params[I]);
+    for (unsigned I = 0; I < G.NumQubits; ++I)
+      Entry += fmt::format(" w{}", Wires[I]);
+    Log.push_back(Entry);
+    return true;
+  }
+  bool takeCall(const qasm::PlainCall &Call) {
+    Log.push_back(fmt::format("call {} with {} parameters",
+                              Call.Gate.Name.str(), Call.Params.size()));
+    return true;
+  }
+};
+
+TEST(PlainCall, OnePassReaderResolvesAsItReads) {
+  const std::string Text = "h q[3];\n  cx q[1] , q [2];rz(-pi/2) q[0];\n"
+                           "wide(1,2,3,4,5,6,7,8,9) q[5];\nh r[0];\n";
+  RecordingTarget T;
+  std::atomic<bool> Cancel{false};
+  const char *End = qasm::readPlainRun(Text.c_str(), T, Cancel, nullptr);
+  const std::vector<std::string> Expected = {
+      "gate h",    "add w3",
+      "gate cx",   "add w1 w2",
+      "gate rz",   fmt::format("add {} w0", -3.141592653589793 / 2),
+      "gate wide", "call wide with 9 parameters",
+      "gate h"}; // r is no register: stop
+  EXPECT_EQ(T.Log, Expected);
+  ASSERT_NE(End, nullptr);
+  EXPECT_EQ(std::string(End), "\nh r[0];\n");
+  // A limit stops it before a call that starts at or past it; an unknown
+  // gate stops it at once.
+  RecordingTarget Limited;
+  EXPECT_EQ(qasm::readPlainRun(Text.c_str(), Limited, Cancel, Text.c_str() + 8),
+            Text.c_str() + 7);
+  EXPECT_EQ(Limited.Log, (std::vector<std::string>{"gate h", "add w3"}));
+  RecordingTarget Unknown;
+  EXPECT_EQ(qasm::readPlainRun("x q[0];", Unknown, Cancel, nullptr), nullptr);
 }
 
 // The second thread. The split falls at the first line past the middle of

@@ -14,6 +14,7 @@
 #include "llvm/Support/Error.h"
 #include "llvm/Support/SMLoc.h"
 
+#include <atomic>
 #include <cstdint>
 #include <memory>
 #include <vector>
@@ -126,6 +127,17 @@ public:
   /// ordinary way and hands it to onStatement, so every diagnostic comes
   /// from one place.
   virtual bool tryPlainCall(const PlainCall &Call) = 0;
+
+  /// Takes the plain calls that follow one another from `P`, a point
+  /// between two statements, each as tryPlainCall would, until one is
+  /// refused, anything else comes (a keyword, a comment, the end of the
+  /// buffer), a call would start at or past `Limit` (when not null), or
+  /// `Cancel` is set. Returns the byte after the last call taken, or null
+  /// if none was. This one offers each call to tryPlainCall; a sink that
+  /// resolves names as it reads may do the same work in one pass.
+  virtual const char *takePlainRun(const char *P,
+                                   const std::atomic<bool> &Cancel,
+                                   const char *Limit);
 };
 
 /// Receives statements in source order; an error stops the parse.

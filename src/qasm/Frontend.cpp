@@ -20,6 +20,7 @@
 #include <array>
 #include <cmath>
 #include <fmt/format.h>
+#include <mutex>
 #include <numbers>
 #include <optional>
 #include <system_error>
@@ -177,12 +178,27 @@ static bool fitLimits(const FrontendLimits &L, uint64_t Ops, uint64_t Wires,
          Params <= L.MaxPoolEntries;
 }
 
-/// Where a circuit's top-level ops go.
-struct OpPools {
-  ir::Pool<ir::Op> &Ops;
+/// A fork's ops, written straight into the circuit's op pool: into its
+/// capacity past the most the main thread may fill meanwhile, so that the
+/// join neither copies them nor touches new pages for them.
+struct OpStretch {
+  ir::Op *Data = nullptr;
+  size_t Size = 0;
+  size_t size() const { return Size; }
+  void push_back(const ir::Op &O) { Data[Size++] = O; }
+};
+
+/// Where top-level ops go: the circuit's pools, or a fork's stretch of the
+/// op pool and pools of its own. `Ops` holds at most `MaxOps` (beside the
+/// limits): the main thread's ceiling while a fork writes above it, or the
+/// stretch's room.
+template <typename OpsT> struct OpPoolsOf {
+  OpsT &Ops;
   ir::Pool<uint32_t> &Wires;
   ir::Pool<double> &Params;
+  uint64_t MaxOps = UINT64_MAX;
 };
+using OpPools = OpPoolsOf<ir::Pool<ir::Op>>;
 
 // Few op statements are shorter than "h q[0];" and a newline, so this
 // bound spares the pools of a flat file their repeated doubling (copies,
@@ -214,15 +230,20 @@ public:
         RegisterCache(RegisterByName) {}
 
   /// Adds `Call` to `To` if applyGate would take it without a diagnostic
-  /// and `To` stays within `Limits`' ops and pool entries; otherwise
-  /// changes nothing.
+  /// and `To` stays within `Limits`' ops and pool entries and its own
+  /// MaxOps; otherwise changes nothing.
+  template <typename OpsT>
   bool append(const PlainCall &Call, const FrontendLimits &Limits,
-              OpPools To);
+              OpPoolsOf<OpsT> To);
 
   /// PlainCallSink::takePlainRun into `To`, each call taken as append
-  /// would take it, but read and resolved in one pass (readPlainRun).
-  const char *appendRun(const char *P, const FrontendLimits &Limits, OpPools To,
-                        const std::atomic<bool> &Cancel, const char *Limit);
+  /// would take it, but read and resolved in one pass (readPlainRun). The
+  /// run also ends soon after `Abandoned` (when given) is set.
+  template <typename OpsT>
+  const char *appendRun(const char *P, const FrontendLimits &Limits,
+                        OpPoolsOf<OpsT> To, const std::atomic<bool> &Cancel,
+                        const char *Limit,
+                        const std::atomic<bool> *Abandoned = nullptr);
 
   /// The names' entries, through the caches that append uses too.
   const llvm::StringMapEntry<ir::GateId> *findGate(llvm::StringRef Name) {
@@ -261,8 +282,10 @@ private:
 
   /// The rest of applyGate's rules (distinct qubits) and the limits, then
   /// the op: `Params` and `Wires` hold G's counts of each.
+  template <typename OpsT>
   bool add(const PlainGate &G, llvm::SMLoc Loc, const double *Params,
-           const uint32_t *Wires, const FrontendLimits &Limits, OpPools To);
+           const uint32_t *Wires, const FrontendLimits &Limits,
+           OpPoolsOf<OpsT> To);
 
   /// Most files name one quantum register in every operand, so the last
   /// operand's name is compared first: a byte or two instead of the
@@ -291,26 +314,57 @@ private:
   PlainGate Resolved;               // plainGate's result
 };
 
-/// A fork for StatementSink::forkPlainCalls: copies of the names, and pools
-/// of its own that joinPlainCalls appends to the circuit's.
+class PlainCallFork;
+
+/// The fork an Elaborator has in flight, and the ceiling it sets on the
+/// circuit's op count meanwhile.
+struct ForkInFlight {
+  PlainCallFork *Fork = nullptr;
+  uint64_t OpsCeiling = UINT64_MAX;
+};
+
+/// A fork for StatementSink::forkPlainCalls: copies of the names; its ops
+/// go into a stretch of the circuit's op pool, its wires and parameter
+/// values into pools of its own, which joinPlainCalls appends.
 class PlainCallFork : public PlainCallSink {
 public:
   PlainCallFork(const ir::Circuit &C,
                 const llvm::StringMap<uint32_t> &RegisterByName,
-                const FrontendLimits &Limits, uint64_t OpsEstimate)
-      : GateByName(C.GateByName), Gates(C.Gates),
-        RegisterByName(RegisterByName), QRegs(C.QRegs), Limits(Limits),
-        NumRegisters(C.QRegs.size() + C.CRegs.size()) {
-    reservePools({Ops, Wires, Params}, OpsEstimate);
+                const FrontendLimits &Limits, OpStretch Stretch,
+                size_t StretchRoom, uint64_t OpsEstimate, ForkInFlight &Slot)
+      : Ops(Stretch), OpsRoom(StretchRoom), GateByName(C.GateByName),
+        Gates(C.Gates), RegisterByName(RegisterByName), QRegs(C.QRegs),
+        Limits(Limits), NumRegisters(C.QRegs.size() + C.CRegs.size()),
+        Slot(Slot) {
+    Wires.reserve(2 * OpsEstimate);
+    Params.reserve(OpsEstimate);
+  }
+  ~PlainCallFork() override {
+    if (Slot.Fork == this)
+      Slot = ForkInFlight();
   }
 
   bool tryPlainCall(const PlainCall &Call) override {
-    return Appender.append(Call, Limits, {Ops, Wires, Params});
+    std::lock_guard<std::mutex> Running(RunMutex);
+    return !Abandoned.load() && Appender.append(Call, Limits, pools());
   }
   const char *takePlainRun(const char *P, const std::atomic<bool> &Cancel,
                            const char *Limit) override {
-    return Appender.appendRun(P, Limits, {Ops, Wires, Params}, Cancel, Limit);
+    // Held while the run writes, so that abandon() can wait for it; and
+    // a run that starts after abandon() writes nothing.
+    std::lock_guard<std::mutex> Running(RunMutex);
+    if (Abandoned.load())
+      return nullptr;
+    return Appender.appendRun(P, Limits, pools(), Cancel, Limit, &Abandoned);
   }
+
+  /// Stops the fork's writing into the circuit's op pool and waits until
+  /// it has: called on the main thread before it fills past the ceiling.
+  void abandon() {
+    Abandoned.store(true);
+    std::lock_guard<std::mutex> Wait(RunMutex);
+  }
+  bool abandoned() const { return Abandoned.load(); }
 
   /// True when `C` has declared nothing since the fork was made.
   bool sameNamesAs(const ir::Circuit &C) const {
@@ -318,11 +372,14 @@ public:
            NumRegisters == C.QRegs.size() + C.CRegs.size();
   }
 
-  ir::Pool<ir::Op> Ops;
+  OpStretch Ops;
   ir::Pool<uint32_t> Wires;
   ir::Pool<double> Params;
 
 private:
+  OpPoolsOf<OpStretch> pools() { return {Ops, Wires, Params, OpsRoom}; }
+
+  const size_t OpsRoom;
   // Declarations only ever add a gate or a register, so equal counts mean
   // equal names.
   const llvm::StringMap<ir::GateId> GateByName;
@@ -331,6 +388,9 @@ private:
   const std::vector<ir::Register> QRegs;
   const FrontendLimits Limits;
   const size_t NumRegisters;
+  ForkInFlight &Slot;
+  std::mutex RunMutex;
+  std::atomic<bool> Abandoned{false};
   PlainCallAppender Appender{GateByName, Gates, RegisterByName, QRegs};
 };
 
@@ -345,14 +405,14 @@ public:
 
   llvm::Error onStatement(const Statement &S) override;
   bool tryPlainCall(const PlainCall &Call) override {
-    return Plain.append(Call, Limits, {C.Ops, C.Wires, C.Params});
+    return Plain.append(Call, Limits, pools());
   }
   const char *takePlainRun(const char *P, const std::atomic<bool> &Cancel,
                            const char *Limit) override {
-    return Plain.appendRun(P, Limits, {C.Ops, C.Wires, C.Params}, Cancel,
-                           Limit);
+    return Plain.appendRun(P, Limits, pools(), Cancel, Limit);
   }
-  std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text) override;
+  std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Between,
+                                                llvm::StringRef Text) override;
   bool defineBuiltinLibrary() override;
   bool joinPlainCalls(PlainCallSink &Fork) override;
   /// Sizes the op and wire pools for the main file's text.
@@ -398,9 +458,13 @@ private:
     return L;
   }
 
+  /// The circuit's pools, as far as the main thread may fill them now.
+  OpPools pools() { return {C.Ops, C.Wires, C.Params, InFlight.OpsCeiling}; }
+
   const FrontendLimits Limits;
   DiagnosticSink &Warnings;
   ir::Circuit C;
+  ForkInFlight InFlight;
   const bool ReuseBuiltinLibrary;
   bool SawStandardLibrary = false;
   llvm::StringMap<uint32_t> RegisterByName; // index * 2 + (1 for quantum)
@@ -733,6 +797,13 @@ llvm::Error Elaborator::addOp(ir::Op O) {
   // The op's wires and parameters are in the pools already.
   if (!fitLimits(Limits, 0, C.Wires.size(), C.Params.size()))
     return errorPoolsFull(O.Loc);
+  // More ops before the fork's part than the bound it was placed by (a
+  // broadcast, an include): the fork gives way, and this thread reads on
+  // alone from its start.
+  if (LLVM_UNLIKELY(C.Ops.size() >= InFlight.OpsCeiling)) {
+    InFlight.Fork->abandon();
+    InFlight = ForkInFlight();
+  }
   C.Ops.push_back(O);
   return llvm::Error::success();
 }
@@ -752,9 +823,10 @@ llvm::Error Elaborator::errorTooManyOps(llvm::SMLoc Loc) {
 
 // applyGate's rules for the plain form, checked before anything is added;
 // whatever would be a diagnostic is left to applyGate.
+template <typename OpsT>
 bool PlainCallAppender::append(const PlainCall &Call,
                                const FrontendLimits &Limits,
-                               OpPools To) {
+                               OpPoolsOf<OpsT> To) {
   const PlainGate *G = plainGate(Call.Gate.Name);
   if (!G || Call.Params.size() != G->NumParams ||
       Call.Args.size() != G->NumQubits)
@@ -768,15 +840,17 @@ bool PlainCallAppender::append(const PlainCall &Call,
   return add(*G, Call.Gate.Loc, Call.Params.data(), Wires, Limits, To);
 }
 
+template <typename OpsT>
 bool PlainCallAppender::add(const PlainGate &G, llvm::SMLoc Loc,
                             const double *Params, const uint32_t *Wires,
-                            const FrontendLimits &Limits, OpPools To) {
+                            const FrontendLimits &Limits, OpPoolsOf<OpsT> To) {
   const unsigned Arity = G.NumQubits;
   for (unsigned A = 1; A < Arity; ++A)
     for (unsigned B = 0; B < A; ++B)
       if (Wires[B] == Wires[A])
         return false;
-  if (!fitLimits(Limits, To.Ops.size() + 1, To.Wires.size() + Arity,
+  if (To.Ops.size() >= To.MaxOps ||
+      !fitLimits(Limits, To.Ops.size() + 1, To.Wires.size() + Arity,
                  To.Params.size() + G.NumParams))
     return false;
   ir::Op O;
@@ -797,15 +871,18 @@ bool PlainCallAppender::add(const PlainGate &G, llvm::SMLoc Loc,
   return true;
 }
 
-const char *PlainCallAppender::appendRun(const char *P,
-                                         const FrontendLimits &Limits,
-                                         OpPools To,
-                                         const std::atomic<bool> &Cancel,
-                                         const char *Limit) {
+template <typename OpsT>
+const char *
+PlainCallAppender::appendRun(const char *P, const FrontendLimits &Limits,
+                             OpPoolsOf<OpsT> To,
+                             const std::atomic<bool> &Cancel, const char *Limit,
+                             const std::atomic<bool> *Abandoned) {
   struct Target {
     PlainCallAppender &A;
     const FrontendLimits &Limits;
-    OpPools To;
+    OpPoolsOf<OpsT> To;
+    const std::atomic<bool> &Cancel;
+    const std::atomic<bool> *Abandoned;
     const PlainGate *gate(llvm::StringRef Name) { return A.plainGate(Name); }
     bool qubit(llvm::StringRef Register, uint64_t Index, uint32_t &Wire) {
       return A.qubit(Register, Index, Wire);
@@ -815,42 +892,77 @@ const char *PlainCallAppender::appendRun(const char *P,
       return A.add(G, Loc, Params, Wires, Limits, To);
     }
     bool takeCall(const PlainCall &Call) { return A.append(Call, Limits, To); }
-  } T{*this, Limits, To};
-  return readPlainRun(P, T, Cancel, Limit);
+    bool cancelled() {
+      return Cancel.load(std::memory_order_relaxed) ||
+             (Abandoned && Abandoned->load(std::memory_order_relaxed));
+    }
+  } T{*this, Limits, To, Cancel, Abandoned};
+  return readPlainRun(P, T, Limit);
 }
 
 std::unique_ptr<PlainCallSink>
-Elaborator::forkPlainCalls(llvm::StringRef Text) {
-  return std::make_unique<PlainCallFork>(C, RegisterByName, Limits,
-                                         estimateOps(Text, Limits.MaxOps));
+Elaborator::forkPlainCalls(llvm::StringRef Between, llvm::StringRef Text) {
+  if (InFlight.Fork)
+    return nullptr; // one at a time
+  // Each statement this thread reads before the fork's part adds one op
+  // at most, except broadcasts and includes: the fork writes from there
+  // on, and should this thread need more, addOp makes the fork give way.
+  // The ';' are counted on this thread, before the fork starts, at memory
+  // speed (llvm::StringRef::count vectorises).
+  uint64_t Ceiling = C.Ops.size() + Between.count(';');
+  uint64_t Estimate = estimateOps(Text, Limits.MaxOps);
+  if (Ceiling >= Limits.MaxOps || Estimate == 0)
+    return nullptr;
+  // Address space only: pages nobody writes are never mapped.
+  C.Ops.reserve(std::max<uint64_t>(C.Ops.capacity(), Ceiling + Estimate));
+  OpStretch Stretch{C.Ops.data() + Ceiling, 0};
+  auto Fork = std::make_unique<PlainCallFork>(
+      C, RegisterByName, Limits, Stretch, C.Ops.capacity() - Ceiling, Estimate,
+      InFlight);
+  InFlight = {Fork.get(), Ceiling};
+  return Fork;
 }
 
 bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
   auto &Fork = static_cast<PlainCallFork &>(Sink); // made by forkPlainCalls
-  if (!Fork.sameNamesAs(C) ||
-      !fitLimits(Limits, C.Ops.size() + Fork.Ops.size(),
+  const size_t Taken = Fork.Ops.size();
+  if (Fork.abandoned() || InFlight.Fork != &Fork || !Fork.sameNamesAs(C) ||
+      !fitLimits(Limits, C.Ops.size() + Taken,
                  C.Wires.size() + Fork.Wires.size(),
                  C.Params.size() + Fork.Params.size()))
     return false;
   const size_t OpBase = C.Ops.size();
+  const size_t StretchAt = size_t(Fork.Ops.Data - C.Ops.data());
   const uint32_t WireBase = uint32_t(C.Wires.size());
   const uint32_t ParamBase = uint32_t(C.Params.size());
-  // Sized first and filled after (ir::PoolAllocator writes nothing), so
-  // that two threads share the copy. Most of its time is the first touch
-  // of the new pages, which one thread would take alone.
-  C.Ops.resize(OpBase + Fork.Ops.size());
+  InFlight = ForkInFlight();
+  // Sized first and filled after (ir::PoolAllocator writes nothing): the
+  // fork's ops are in place already, past OpBase or right at it.
+  C.Ops.resize(StretchAt + Taken);
   C.Wires.resize(WireBase + Fork.Wires.size());
   C.Params.resize(ParamBase + Fork.Params.size());
+  ir::Op *Ops = C.Ops.data();
+  auto Rebase = [&](size_t From, size_t To) {
+    for (size_t I = From; I < To; ++I) {
+      ir::Op O = Ops[StretchAt + I];
+      O.FirstWire += WireBase;
+      O.FirstParam += ParamBase;
+      Ops[OpBase + I] = O;
+    }
+  };
+  // Two threads share the work: the rest of the pools, and the ops where
+  // they stay in place. Ops that must move down (this thread read fewer
+  // than the ceiling allowed) move on one thread in order, since the two
+  // ranges overlap.
   auto CopyPart = [&](unsigned Part, unsigned Parts) {
     auto Range = [=](size_t N) {
       return std::pair(N * Part / Parts, N * (Part + 1) / Parts);
     };
-    auto [OpsFrom, OpsTo] = Range(Fork.Ops.size());
-    for (size_t I = OpsFrom; I < OpsTo; ++I) {
-      ir::Op O = Fork.Ops[I];
-      O.FirstWire += WireBase;
-      O.FirstParam += ParamBase;
-      C.Ops[OpBase + I] = O;
+    if (StretchAt == OpBase) {
+      auto [OpsFrom, OpsTo] = Range(Taken);
+      Rebase(OpsFrom, OpsTo);
+    } else if (Part == 0) {
+      Rebase(0, Taken);
     }
     auto [WiresFrom, WiresTo] = Range(Fork.Wires.size());
     std::copy(Fork.Wires.begin() + WiresFrom, Fork.Wires.begin() + WiresTo,
@@ -862,16 +974,17 @@ bool Elaborator::joinPlainCalls(PlainCallSink &Sink) {
   std::optional<std::thread> Helper;
   // Below this a thread costs more than it saves.
   constexpr size_t MinOpsForHelper = 1u << 16;
-  if (Fork.Ops.size() >= MinOpsForHelper) {
+  if (Taken >= MinOpsForHelper) {
     try {
       Helper.emplace([&] { CopyPart(1, 2); });
     } catch (const std::system_error &) {
-      // no thread to be had: this one copies everything
+      // no thread to be had: this one does everything
     }
   }
   CopyPart(0, Helper ? 2 : 1);
   if (Helper)
     Helper->join();
+  C.Ops.resize(OpBase + Taken);
   return true;
 }
 

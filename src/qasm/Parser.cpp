@@ -38,8 +38,8 @@ const char *PlainCallSink::takePlainRun(const char *P,
   return scanPlainRun(P, *this, Cancel, Limit);
 }
 
-std::unique_ptr<PlainCallSink>
-StatementSink::forkPlainCalls(llvm::StringRef) {
+std::unique_ptr<PlainCallSink> StatementSink::forkPlainCalls(llvm::StringRef,
+                                                             llvm::StringRef) {
   return nullptr;
 }
 
@@ -181,7 +181,8 @@ void Parser::startSecondReader(const char *From) {
     return;
   const char *Start = static_cast<const char *>(LineEnd) + 1;
   std::unique_ptr<PlainCallSink> Fork =
-      Sink.forkPlainCalls(llvm::StringRef(Start, size_t(End - Start)));
+      Sink.forkPlainCalls(llvm::StringRef(From, size_t(Start - From)),
+                          llvm::StringRef(Start, size_t(End - Start)));
   if (!Fork)
     return;
   auto R = std::make_unique<SecondReader>();

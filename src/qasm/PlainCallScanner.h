@@ -129,11 +129,11 @@ const char *scanPlainArgs(const char *P, const PlainGate &G, Target &T,
 ///   bool add(const PlainGate &G, llvm::SMLoc Loc, const double *Params,
 ///            const uint32_t *Wires); // tryPlainCall's remaining rules
 ///   bool takeCall(const PlainCall &Call); // tryPlainCall itself
-/// and a false from any of them ends the run before that call, as a
-/// refusal ends scanPlainRun's.
+///   bool cancelled(); // asked every 4096 calls
+/// and a false from any of the first four ends the run before that call,
+/// as a refusal ends scanPlainRun's.
 template <typename Target>
-const char *readPlainRun(const char *P, Target &T,
-                         const std::atomic<bool> &Cancel, const char *Limit) {
+const char *readPlainRun(const char *P, Target &T, const char *Limit) {
   PlainCall Wide; // for gates wider than the arrays below
   const char *LastEnd = nullptr;
   for (unsigned N = 1;; ++N) {
@@ -162,7 +162,7 @@ const char *readPlainRun(const char *P, Target &T,
         break;
     }
     P = LastEnd = After;
-    if (N % 4096 == 0 && Cancel.load(std::memory_order_relaxed))
+    if (N % 4096 == 0 && T.cancelled())
       break;
   }
   return LastEnd;

@@ -243,6 +243,7 @@ struct RecordingTarget {
     Log.push_back(Entry);
     return true;
   }
+  bool cancelled() { return false; }
   bool takeCall(const qasm::PlainCall &Call) {
     Log.push_back(fmt::format("call {} with {} parameters",
                               Call.Gate.Name.str(), Call.Params.size()));
@@ -254,8 +255,7 @@ TEST(PlainCall, OnePassReaderResolvesAsItReads) {
   const std::string Text = "h q[3];\n  cx q[1] , q [2];rz(-pi/2) q[0];\n"
                            "wide(1,2,3,4,5,6,7,8,9) q[5];\nh r[0];\n";
   RecordingTarget T;
-  std::atomic<bool> Cancel{false};
-  const char *End = qasm::readPlainRun(Text.c_str(), T, Cancel, nullptr);
+  const char *End = qasm::readPlainRun(Text.c_str(), T, nullptr);
   const std::vector<std::string> Expected = {
       "gate h",    "add w3",
       "gate cx",   "add w1 w2",
@@ -268,11 +268,11 @@ TEST(PlainCall, OnePassReaderResolvesAsItReads) {
   // A limit stops it before a call that starts at or past it; an unknown
   // gate stops it at once.
   RecordingTarget Limited;
-  EXPECT_EQ(qasm::readPlainRun(Text.c_str(), Limited, Cancel, Text.c_str() + 8),
+  EXPECT_EQ(qasm::readPlainRun(Text.c_str(), Limited, Text.c_str() + 8),
             Text.c_str() + 7);
   EXPECT_EQ(Limited.Log, (std::vector<std::string>{"gate h", "add w3"}));
   RecordingTarget Unknown;
-  EXPECT_EQ(qasm::readPlainRun("x q[0];", Unknown, Cancel, nullptr), nullptr);
+  EXPECT_EQ(qasm::readPlainRun("x q[0];", Unknown, nullptr), nullptr);
 }
 
 // The second thread. The split falls at the first line past the middle of
@@ -298,7 +298,8 @@ public:
     Calls.push_back(C.Gate.Name.str() + "@" + offset(C.Gate.Loc));
     return true;
   }
-  std::unique_ptr<qasm::PlainCallSink> forkPlainCalls(llvm::StringRef) override {
+  std::unique_ptr<qasm::PlainCallSink>
+  forkPlainCalls(llvm::StringRef, llvm::StringRef) override {
     ++Forks;
     auto F = std::make_unique<RecordingSink>();
     F->Base = Base;
@@ -378,15 +379,22 @@ TEST(PlainCallSecondThread, SameCircuitWhateverFallsAroundTheSplit) {
                            "qreg q[4];\ncreg c[4];\nh q[0];\n";
   const std::string Half = manyLines(50, "cx q[0], q[1];\nrz(pi/8) q[2];\n");
   for (const char *Middle : {
-           "",                                  // only plain calls
-           "qreg r[2];\nh r[0];\n",             // a declaration before it
-           "gate g a { h a; }\ng q[0];\n",      // a definition
-           "gate rz(t) a { u1(t) a; }\n",       // rz means another gate
+           "",                             // only plain calls
+           "qreg r[2];\nh r[0];\n",        // a declaration before it
+           "gate g a { h a; }\ng q[0];\n", // a definition
+           "gate rz(t) a { u1(t) a; }\n",  // rz means another gate
            "measure q[0] -> c[0];\nreset q[1];\n",
            "if (c==1) x q[3];\n",
            "// a comment\n//! role q[3] ancilla\n",
-           "h q[9];\n",                         // an error
-           "cx q[1],\nq[2];\n",                 // two lines
+           "h q[9];\n",         // an error
+           "cx q[1],\nq[2];\n", // two lines
+           // The fork writes its ops into the circuit's pool past one op
+           // per ';' before its part: fewer (';' in comments) leave a gap
+           // the join closes, more (broadcasts) make the fork give way.
+           "// ;;; ;\nh q[1]; // ;\n",
+           "h q;\n",
+           "measure q -> c;\nreset q;\n",
+           "cx q, q;\n",
        }) {
     EXPECT_EQ(test::plainCallDifference(Head + Half + Middle + Half), "")
         << Middle;
@@ -407,21 +415,25 @@ TEST(PlainCallSecondThread, LimitOnOpsAcrossTheSplit) {
   }
 }
 
-// Enough ops past the split that the join copies on two threads
-// (Elaborator::joinPlainCalls); every line differs, so that a part copied
-// to the wrong place shows.
-TEST(PlainCallSecondThread, LargeJoinCopiesOnTwoThreads) {
-  std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
-                     "qreg q[7];\ncreg c[7];\nbarrier q;\nmeasure q[3] -> c[3];\n"
-                     "u3(0.5,0.25,0.125) q[6];\n";
-  for (unsigned I = 0; I < 100'000; ++I) {
-    unsigned A = I % 7, B = (I / 7 + 1 + A) % 7;
-    if (B == A)
-      B = (A + 1) % 7;
-    Text += fmt::format("rz({}) q[{}];\ncx q[{}],q[{}];\nh q[{}];\n", I, A,
-                        A, B, B);
+// Enough ops past the split that the join works on two threads
+// (Elaborator::joinPlainCalls); every line differs, so that a part put in
+// the wrong place shows. The fork's ops stay where it wrote them, or move
+// down when comments with ';' before the split leave a gap.
+TEST(PlainCallSecondThread, LargeJoinWorksOnTwoThreads) {
+  for (const char *Gap : {"", "// ;;\n"}) {
+    std::string Text = "OPENQASM 2.0;\ninclude \"qelib1.inc\";\n"
+                       "qreg q[7];\ncreg c[7];\nbarrier q;\n"
+                       "measure q[3] -> c[3];\nu3(0.5,0.25,0.125) q[6];\n";
+    Text += Gap;
+    for (unsigned I = 0; I < 100'000; ++I) {
+      unsigned A = I % 7, B = (I / 7 + 1 + A) % 7;
+      if (B == A)
+        B = (A + 1) % 7;
+      Text += fmt::format("rz({}) q[{}];\ncx q[{}],q[{}];\nh q[{}];\n", I, A, A,
+                          B, B);
+    }
+    EXPECT_EQ(test::plainCallDifference(Text), "") << Gap;
   }
-  EXPECT_EQ(test::plainCallDifference(Text), "");
 }
 
 TEST(PlainCallSecondThread, LimitOnPoolEntriesAcrossTheSplit) {

@@ -155,10 +155,13 @@ public:
   /// For reading the plain calls of a later part of a large file on a
   /// second thread while the parser reads up to it
   /// (ParserOptions::MinBytesForSecondThread): a sink that resolves calls
-  /// as this one would now, against copies of its names, into pools of its
-  /// own, so that it shares nothing with this sink. Null when unsupported.
-  /// `Text` is what the fork will read, for sizing its pools.
-  virtual std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Text);
+  /// as this one would now, against copies of its names, so that it reads
+  /// nothing this sink writes. Null when unsupported. `Between` is what
+  /// the parser reads on this thread before the fork's part, `Text`, for
+  /// placing and sizing what the fork writes: this sink's own statements
+  /// there may still pass any bound it infers, and are read all the same.
+  virtual std::unique_ptr<PlainCallSink> forkPlainCalls(llvm::StringRef Between,
+                                                        llvm::StringRef Text);
   /// Adds what `Fork` (made by forkPlainCalls) took, as if each call had
   /// come through tryPlainCall here and now, and returns true; or returns
   /// false and changes nothing, when that would not be the same: a name

@@ -910,11 +910,17 @@ Elaborator::forkPlainCalls(llvm::StringRef Between, llvm::StringRef Text) {
   // The ';' are counted on this thread, before the fork starts, at memory
   // speed (llvm::StringRef::count vectorises).
   uint64_t Ceiling = C.Ops.size() + Between.count(';');
-  uint64_t Estimate = estimateOps(Text, Limits.MaxOps);
-  if (Ceiling >= Limits.MaxOps || Estimate == 0)
+  // Room for one op at least, so that even a short part is read twice
+  // over in the tests (a fork that runs out of room ends its run early).
+  uint64_t Estimate = std::max<uint64_t>(1, estimateOps(Text, Limits.MaxOps));
+  // The pool grows to hold both (address space only: pages nobody writes
+  // are never mapped), but to no more than one op per 4 bytes left to
+  // read: a first half of mostly ';' is read on one thread instead.
+  uint64_t Needed = Ceiling + Estimate;
+  if (Ceiling >= Limits.MaxOps ||
+      Needed > C.Ops.size() + (Between.size() + Text.size()) / 4)
     return nullptr;
-  // Address space only: pages nobody writes are never mapped.
-  C.Ops.reserve(std::max<uint64_t>(C.Ops.capacity(), Ceiling + Estimate));
+  C.Ops.reserve(std::max<uint64_t>(C.Ops.capacity(), Needed));
   OpStretch Stretch{C.Ops.data() + Ceiling, 0};
   auto Fork = std::make_unique<PlainCallFork>(
       C, RegisterByName, Limits, Stretch, C.Ops.capacity() - Ceiling, Estimate,

@@ -403,6 +403,10 @@ TEST(PlainCallSecondThread, SameCircuitWhateverFallsAroundTheSplit) {
     EXPECT_EQ(test::plainCallDifference(Head + Half + Half + Middle), "")
         << Middle;
   }
+  // More ';' before the split than a pool of one op per 4 bytes would
+  // hold: read on one thread.
+  const std::string Semicolons = "// " + std::string(700, ';') + "\n";
+  EXPECT_EQ(test::plainCallDifference(Head + Half + Semicolons + Half), "");
 }
 
 TEST(PlainCallSecondThread, LimitOnOpsAcrossTheSplit) {

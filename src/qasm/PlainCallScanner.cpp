@@ -114,24 +114,12 @@ const char *scanPlainCall(const Ident &Gate, const char *After,
   Out.Gate = Gate;
   Out.Params.clear();
   Out.Args.clear();
-  const char *P = skipBlanks(After);
-  if (*P == '(') {
-    P = skipBlanks(P + 1);
-    if (*P != ')') {
-      while (true) {
-        double V = 0;
-        if (!(P = scanParam(P, V)))
-          return nullptr;
-        Out.Params.push_back(V);
-        if (*P != ',')
-          break;
-        P = skipBlanks(P + 1);
-      }
-      if (*P != ')')
-        return nullptr;
-    }
-    P = skipBlanks(P + 1);
-  }
+  const char *P = scanParamList(After, [&](double Value) {
+    Out.Params.push_back(Value);
+    return true;
+  });
+  if (!P)
+    return nullptr;
   while (true) {
     P = scanOperand(P, Out.Args.emplace_back());
     if (!P)

@@ -73,6 +73,30 @@ struct PlainGate {
 /// stack; calls of wider gates go through scanPlainCall and a PlainCall.
 constexpr unsigned PlainRunMaxParams = 8, PlainRunMaxQubits = 8;
 
+/// A parameter list, `(p, p, ...)` or `()`, or none, from `P` (blanks
+/// skipped first): each value goes to `Take`, which returns false to refuse
+/// it. Returns the byte after the list, blanks skipped, or nullptr.
+template <typename TakeT>
+const char *scanParamList(const char *P, TakeT &&Take) {
+  P = skipBlanks(P);
+  if (*P != '(')
+    return P;
+  P = skipBlanks(P + 1);
+  if (*P != ')') {
+    while (true) {
+      double Value = 0;
+      if (!(P = scanParam(P, Value)) || !Take(Value))
+        return nullptr;
+      if (*P != ',')
+        break;
+      P = skipBlanks(P + 1);
+    }
+    if (*P != ')')
+      return nullptr;
+  }
+  return skipBlanks(P + 1);
+}
+
 /// The arguments of a plain call of `G` after its name (`P` right after
 /// it): exactly G.NumParams parameters and G.NumQubits indexed operands,
 /// each resolved through `T.qubit`, then the ';'. Returns the byte after
@@ -80,25 +104,14 @@ constexpr unsigned PlainRunMaxParams = 8, PlainRunMaxQubits = 8;
 template <typename Target>
 const char *scanPlainArgs(const char *P, const PlainGate &G, Target &T,
                           double *Params, uint32_t *Wires) {
-  P = skipBlanks(P);
   unsigned NumParams = 0;
-  if (*P == '(') {
-    P = skipBlanks(P + 1);
-    if (*P != ')') {
-      while (true) {
-        if (NumParams == G.NumParams ||
-            !(P = scanParam(P, Params[NumParams++])))
-          return nullptr;
-        if (*P != ',')
-          break;
-        P = skipBlanks(P + 1);
-      }
-      if (*P != ')')
-        return nullptr;
-    }
-    P = skipBlanks(P + 1);
-  }
-  if (NumParams != G.NumParams || G.NumQubits == 0)
+  P = scanParamList(P, [&](double Value) {
+    if (NumParams == G.NumParams)
+      return false;
+    Params[NumParams++] = Value;
+    return true;
+  });
+  if (!P || NumParams != G.NumParams || G.NumQubits == 0)
     return nullptr;
   for (unsigned A = 0; A < G.NumQubits; ++A) {
     if (A != 0) {
